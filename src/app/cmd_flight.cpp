@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 
+#include "app/cli_checks.h"
 #include "app/commands.h"
 #include "common/error.h"
 #include "flight/flight_conditions.h"
@@ -98,30 +99,30 @@ void add_flight_command(CLI::App& app) {
           std::string(kCaution));
   cmd->add_option("--mass", args->mass, "Airplane mass at the flight point, kg")
       ->required()
-      ->check(CLI::PositiveNumber);
+      ->check(positive());
   cmd->add_option("--wing-area", args->wing_area, "Wing reference area, m^2")
       ->required()
-      ->check(CLI::PositiveNumber);
+      ->check(positive());
   cmd->add_option("--chord", args->chord, "Mean aerodynamic chord, m (for the Reynolds number)")
       ->required()
-      ->check(CLI::PositiveNumber);
+      ->check(positive());
   cmd->add_option("--speed", args->speed, "Cruise true airspeed, m/s")
       ->required()
-      ->check(CLI::PositiveNumber);
+      ->check(positive());
   cmd->add_option("--altitude", args->altitude, "Cruise pressure altitude, m (0 to 20000)")
       ->required()
-      ->check(CLI::Range(0.0, 20000.0));
+      ->check(within(0.0, 20000.0));
   cmd->add_option("--temperature-offset", args->temperature_offset,
                   "Temperature above the standard day, K (ISA+dT); applies to both points");
   cmd->add_option("--stall-speed", args->stall_speed, "Stall speed to meet, m/s true airspeed")
-      ->check(CLI::PositiveNumber);
+      ->check(positive());
   cmd->add_option("--stall-altitude", args->stall_altitude,
                   "Pressure altitude of the stall requirement, m (default 0)")
-      ->check(CLI::Range(0.0, 20000.0));
+      ->check(within(0.0, 20000.0));
   cmd->add_option("--wing-to-section", args->wing_to_section,
                   "CL_max(wing) / cl_max(section), default 0.9 (clean high-aspect-ratio wing, "
                   "Raymer, Aircraft Design: A Conceptual Approach)")
-      ->check(CLI::Range(0.01, 1.2));
+      ->check(within(0.01, 1.2));
   cmd->add_flag("--json", args->json, "Print one JSON object (SI units)");
   cmd->callback([args]() { run_flight(*args); });
 }
