@@ -11,6 +11,7 @@ void add_analyze_command(CLI::App& app);   // cmd_analyze.cpp
 void add_polar_command(CLI::App& app);     // cmd_polar.cpp
 void add_export_command(CLI::App& app);    // cmd_export.cpp
 void add_optimize_command(CLI::App& app);  // cmd_optimize.cpp
+void add_study_command(CLI::App& app);     // cmd_study.cpp
 
 // The caution every --help and every report carries.
 inline constexpr const char* kCaution =

@@ -23,6 +23,7 @@ int main(int argc, char** argv) {
   fulmar::app::add_polar_command(app);
   fulmar::app::add_export_command(app);
   fulmar::app::add_optimize_command(app);
+  fulmar::app::add_study_command(app);
 
   try {
     app.parse(argc, argv);
