@@ -1,0 +1,124 @@
+#include "solvers/inviscid/panel_kernels.h"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+
+namespace fulmar::panel {
+namespace {
+
+constexpr double kTwoPi = 2.0 * std::numbers::pi;
+constexpr double kCoincident = 1e-12;  // relative to the panel length
+
+struct Local {
+  double x, y, L, r1, r2, ln1, ln2;
+};
+
+// `log_scale` replaces ln r at an end the point coincides with; in the stream function every such
+// ln r is multiplied by a factor that vanishes there, so the choice does not matter.
+Local local(const Frame& f, const Eigen::Vector2d& p, double log_scale) {
+  const Eigen::Vector2d d = p - f.a;
+  Local l;
+  l.x = d.dot(f.t);
+  l.y = d.dot(f.n);
+  l.L = f.length;
+  if (l.y == 0.0) l.y = 0.0;  // no negative zero: atan2 must see the left-side limit
+  l.r1 = std::hypot(l.x, l.y);
+  l.r2 = std::hypot(l.x - l.L, l.y);
+  const double eps = kCoincident * l.L;
+  const double lnz = std::log(log_scale);
+  l.ln1 = l.r1 > eps ? std::log(l.r1) : lnz;
+  l.ln2 = l.r2 > eps ? std::log(l.r2) : lnz;
+  return l;
+}
+
+double integral_ln(const Local& l, double dtheta) {  // Int_0^L ln r dxi
+  return l.x * l.ln1 - (l.x - l.L) * l.ln2 - l.L + l.y * dtheta;
+}
+
+double dtheta_left(const Local& l) {  // theta2 - theta1, left-side limit on the panel
+  return std::atan2(l.y, l.x - l.L) - std::atan2(l.y, l.x);
+}
+
+// theta2 - theta1 for velocities: on the panel itself (ends included) the mean of both sides.
+double dtheta_mean(const Local& l) {
+  const double eps = kCoincident * l.L;
+  if (std::abs(l.y) <= eps && l.x >= -eps && l.x <= l.L + eps) return 0.0;
+  return dtheta_left(l);
+}
+
+Eigen::Vector2d to_global(const Frame& f, double u, double v) {
+  return u * f.t + v * f.n;
+}
+
+}  // namespace
+
+Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b) {
+  Frame f;
+  f.a = a;
+  const Eigen::Vector2d d = b - a;
+  f.length = d.norm();
+  f.t = d / f.length;
+  f.n = Eigen::Vector2d(-f.t.y(), f.t.x());
+  return f;
+}
+
+void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb) {
+  const Local l = local(f, p, 1.0);
+  const double i0 = integral_ln(l, dtheta_left(l));
+  const double j = 0.5 * l.r2 * l.r2 * l.ln2 - 0.25 * (l.L - l.x) * (l.L - l.x) -
+                   0.5 * l.r1 * l.r1 * l.ln1 + 0.25 * l.x * l.x;
+  const double i1 = l.x * i0 + j;  // Int_0^L xi ln r dxi
+  wa = (i0 - i1 / l.L) / kTwoPi;
+  wb = i1 / (l.L * kTwoPi);
+}
+
+double psi_vortex_constant(const Frame& f, const Eigen::Vector2d& p) {
+  const Local l = local(f, p, 1.0);
+  return integral_ln(l, dtheta_left(l)) / kTwoPi;
+}
+
+double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut) {
+  const Local l = local(f, p, 1.0);
+  double k = 0.0;
+  if (cut == Cut::kRight) {
+    // Standard atan2 (cut along -t of each element), continued into y < 0 through the side ahead
+    // of the element; behind it (xi > x) the angle is 2 pi larger there.
+    const double t1 = std::atan2(l.y, l.x), t2 = std::atan2(l.y, l.x - l.L);
+    k = l.x * t1 + l.y * l.ln1 - (l.x - l.L) * t2 - l.y * l.ln2;
+    if (l.y < 0.0) k += kTwoPi * (l.L - std::clamp(l.x, 0.0, l.L));
+  } else {
+    // Angle measured from -t: cut along +t beyond each element.
+    const double my = l.y == 0.0 ? 0.0 : -l.y;
+    const double t1 = std::atan2(my, -l.x), t2 = std::atan2(my, l.L - l.x);
+    k = l.x * t1 + l.y * l.ln1 - (l.x - l.L) * t2 - l.y * l.ln2;
+  }
+  return k / kTwoPi;
+}
+
+void velocity_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double log_scale,
+                            Eigen::Vector2d& va, Eigen::Vector2d& vb) {
+  const Local l = local(f, p, log_scale);
+  const double dt = dtheta_mean(l);
+  const double i0 = integral_ln(l, dt);
+  const double ub = (l.x * dt + l.y * (l.ln2 - l.ln1)) / l.L;  // d(I1)/dy / L
+  const double vb_ = (i0 - l.L * l.ln2) / l.L;                 // d(I1)/dx / L
+  const double ua = dt - ub;
+  const double va_ = (l.ln1 - l.ln2) - vb_;
+  va = to_global(f, ua / kTwoPi, -va_ / kTwoPi);
+  vb = to_global(f, ub / kTwoPi, -vb_ / kTwoPi);
+}
+
+Eigen::Vector2d velocity_vortex_constant(const Frame& f, const Eigen::Vector2d& p,
+                                         double log_scale) {
+  const Local l = local(f, p, log_scale);
+  return to_global(f, dtheta_mean(l) / kTwoPi, -(l.ln1 - l.ln2) / kTwoPi);
+}
+
+Eigen::Vector2d velocity_source_constant(const Frame& f, const Eigen::Vector2d& p,
+                                         double log_scale) {
+  const Local l = local(f, p, log_scale);
+  return to_global(f, (l.ln1 - l.ln2) / kTwoPi, dtheta_mean(l) / kTwoPi);
+}
+
+}  // namespace fulmar::panel

@@ -1,0 +1,45 @@
+#pragma once
+// Closed-form stream function and velocity of one straight panel carrying a vortex sheet (linear
+// or constant strength) or a constant source sheet, at a field point. Internal to the solver;
+// exposed in a header so that the kernels can be tested against finite differences.
+//
+// Panel frame: origin at the start node a, x along the panel to b (length L), y to the left
+// (into the section for a counter-clockwise contour). Field point at local (x, y); r1, r2 are
+// its distances to a and b, theta1, theta2 the angles of (p - a), (p - b) from +x.
+// Vortex sheets are clockwise positive: psi = (1/2pi) Int gamma ln r ds. Sources are outflow
+// positive: psi = (1/2pi) Int sigma theta ds, with theta's branch cut chosen per use (see below).
+#include <Eigen/Core>
+
+namespace fulmar::panel {
+
+struct Frame {
+  Eigen::Vector2d a, t, n;  // start node, unit tangent a->b, unit left normal
+  double length = 0.0;
+};
+
+Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b);
+
+// Stream-function weights of a linear vortex sheet: psi = wa * gamma_a + wb * gamma_b.
+void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb);
+// Stream function of a constant vortex sheet of unit strength.
+double psi_vortex_constant(const Frame& f, const Eigen::Vector2d& p);
+
+// Where the branch cut of each source element's angle lies.
+enum class Cut {
+  kRight,   // along the right normal (outward for a counter-clockwise section contour)
+  kForward  // along +t beyond the element (downstream for a wake panel)
+};
+// Stream function of a constant source sheet of unit strength.
+double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut);
+
+// Velocities (global x, y) induced at p. `log_scale`: when p coincides with a panel end
+// (distance < 1e-12 L) the ln r of that end is replaced by ln(log_scale) (a finite part; the
+// singular parts of adjacent collinear panels with continuous strength cancel exactly).
+void velocity_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double log_scale,
+                            Eigen::Vector2d& va, Eigen::Vector2d& vb);
+Eigen::Vector2d velocity_vortex_constant(const Frame& f, const Eigen::Vector2d& p,
+                                         double log_scale);
+Eigen::Vector2d velocity_source_constant(const Frame& f, const Eigen::Vector2d& p,
+                                         double log_scale);
+
+}  // namespace fulmar::panel

@@ -1,0 +1,109 @@
+// The panel kernels against their own definitions: velocities are the derivatives of the stream
+// functions (u = dpsi/dy, v = -dpsi/dx, checked by central differences), far away a panel acts as
+// a point vortex / point source of the same total strength (the classical point-singularity
+// fields, e.g. Katz & Plotkin, Low-Speed Aerodynamics, 2nd ed. 2001, ch. 3), and a source sheet
+// produces the normal-velocity jump sigma across itself (ibid., ch. 10).
+#include "solvers/inviscid/panel_kernels.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <numbers>
+
+namespace fulmar::panel {
+namespace {
+
+using Eigen::Vector2d;
+
+const Frame kPanel = frame(Vector2d(0.3, -0.2), Vector2d(0.9, 0.25));
+
+// Field points off the panel and away from the source cuts (the cut of Cut::kRight lies on the
+// right of the panel, below the line through it for this orientation; we stay above or beyond).
+const Vector2d kPoints[] = {{0.2, 0.6}, {1.4, 0.1}, {-0.5, 0.3}, {0.65, 0.2}, {0.62, 0.06}};
+
+// Central differences with h = 1e-6 have truncation error O(h^2 psi''') ~ 1e-12 and round-off
+// ~ 1e-16 / 1e-6 = 1e-10; 1e-7 leaves a wide margin while catching any wrong term (O(0.01-1)).
+constexpr double kH = 1e-6, kTol = 1e-7;
+
+TEST(PanelKernels, LinearVortexVelocityIsStreamFunctionDerivative) {
+  for (const Vector2d& p : kPoints) {
+    for (int end = 0; end < 2; ++end) {
+      auto psi = [&](const Vector2d& x) {
+        double wa = 0, wb = 0;
+        psi_vortex_linear(kPanel, x, wa, wb);
+        return end == 0 ? wa : wb;
+      };
+      Vector2d va, vb;
+      velocity_vortex_linear(kPanel, p, 1.0, va, vb);
+      const Vector2d v = end == 0 ? va : vb;
+      const double u_fd = (psi(p + Vector2d(0, kH)) - psi(p - Vector2d(0, kH))) / (2 * kH);
+      const double v_fd = -(psi(p + Vector2d(kH, 0)) - psi(p - Vector2d(kH, 0))) / (2 * kH);
+      EXPECT_NEAR(v.x(), u_fd, kTol);
+      EXPECT_NEAR(v.y(), v_fd, kTol);
+    }
+  }
+}
+
+TEST(PanelKernels, ConstantVortexAndSourceVelocitiesAreStreamFunctionDerivatives) {
+  for (const Vector2d& p : kPoints) {
+    for (Cut cut : {Cut::kRight, Cut::kForward}) {
+      auto ps = [&](const Vector2d& x) { return psi_source_constant(kPanel, x, cut); };
+      const Vector2d vs = velocity_source_constant(kPanel, p, 1.0);
+      EXPECT_NEAR(vs.x(), (ps(p + Vector2d(0, kH)) - ps(p - Vector2d(0, kH))) / (2 * kH), kTol);
+      EXPECT_NEAR(vs.y(), -(ps(p + Vector2d(kH, 0)) - ps(p - Vector2d(kH, 0))) / (2 * kH), kTol);
+    }
+    auto pv = [&](const Vector2d& x) { return psi_vortex_constant(kPanel, x); };
+    const Vector2d vv = velocity_vortex_constant(kPanel, p, 1.0);
+    EXPECT_NEAR(vv.x(), (pv(p + Vector2d(0, kH)) - pv(p - Vector2d(0, kH))) / (2 * kH), kTol);
+    EXPECT_NEAR(vv.y(), -(pv(p + Vector2d(kH, 0)) - pv(p - Vector2d(kH, 0))) / (2 * kH), kTol);
+  }
+}
+
+TEST(PanelKernels, FarFieldIsPointSingularity) {
+  // At distance R = 200 panel lengths the panel's higher multipoles are O((L/R)) smaller than
+  // the point field; relative tolerance 2 L/R = 0.01 is safe.
+  const Vector2d mid = kPanel.a + 0.5 * kPanel.length * kPanel.t;
+  const double big = 200.0 * kPanel.length;
+  for (double ang : {0.3, 2.0, 4.0}) {
+    const Vector2d d(std::cos(ang), std::sin(ang));
+    const Vector2d p = mid + big * d;
+    const double k = kPanel.length / (2.0 * std::numbers::pi * big);
+    const Vector2d source = k * d;                        // outflow, radial
+    const Vector2d vortex = k * Vector2d(d.y(), -d.x());  // clockwise
+    const Vector2d vs = velocity_source_constant(kPanel, p, 1.0);
+    const Vector2d vv = velocity_vortex_constant(kPanel, p, 1.0);
+    Vector2d va, vb;
+    velocity_vortex_linear(kPanel, p, 1.0, va, vb);
+    EXPECT_NEAR((vs - source).norm(), 0.0, 0.01 * k);
+    EXPECT_NEAR((vv - vortex).norm(), 0.0, 0.01 * k);
+    EXPECT_NEAR((va + vb - vortex).norm(), 0.0, 0.01 * k);
+  }
+}
+
+TEST(PanelKernels, SourceSheetJumpsNormalVelocityBySigma) {
+  const Vector2d on = kPanel.a + 0.4 * kPanel.length * kPanel.t;
+  const double e = 1e-9;
+  const Vector2d left = velocity_source_constant(kPanel, on + e * kPanel.n, 1.0);
+  const Vector2d right = velocity_source_constant(kPanel, on - e * kPanel.n, 1.0);
+  EXPECT_NEAR((left - right).dot(kPanel.n), 1.0, 1e-6);  // jump = sigma (unit strength)
+  // And a vortex sheet jumps the tangential velocity by gamma, clockwise positive: the left
+  // side moves along +t (Katz & Plotkin 2001, sec. 10.2.2).
+  const Vector2d vl = velocity_vortex_constant(kPanel, on + e * kPanel.n, 1.0);
+  const Vector2d vr = velocity_vortex_constant(kPanel, on - e * kPanel.n, 1.0);
+  EXPECT_NEAR((vl - vr).dot(kPanel.t), 1.0, 1e-6);
+}
+
+TEST(PanelKernels, OutwardCutKeepsStreamFunctionContinuousOnTheLeft) {
+  // Stream function of a source with its cut on the right must be continuous across the line
+  // through the panel outside the panel (behind its start and beyond its end).
+  const double e = 1e-10;
+  for (double s : {-0.5, 1.5}) {
+    const Vector2d on = kPanel.a + s * kPanel.length * kPanel.t;
+    const double above = psi_source_constant(kPanel, on + e * kPanel.n, Cut::kRight);
+    const double below = psi_source_constant(kPanel, on - e * kPanel.n, Cut::kRight);
+    EXPECT_NEAR(above, below, 1e-8);
+  }
+}
+
+}  // namespace
+}  // namespace fulmar::panel
