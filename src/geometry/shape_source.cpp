@@ -1,0 +1,83 @@
+#include "geometry/shape_source.h"
+
+#include <cctype>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "common/error.h"
+#include "geometry/naca.h"
+
+namespace fulmar {
+
+std::string to_string(ShapeSource::Kind kind) {
+  switch (kind) {
+    case ShapeSource::Kind::kNaca:
+      return "naca";
+    case ShapeSource::Kind::kCst:
+      return "cst";
+    case ShapeSource::Kind::kCoordinates:
+      return "coordinates";
+  }
+  return "unknown";
+}
+
+bool looks_like_naca(const std::string& spec) {
+  if (spec.size() < 5) return false;
+  std::string head;
+  for (int i = 0; i < 4; ++i)
+    head += static_cast<char>(std::tolower(static_cast<unsigned char>(spec[i])));
+  return head == "naca";
+}
+
+ShapeSource load_shape_source(const std::string& spec) {
+  namespace fs = std::filesystem;
+  ShapeSource src;
+  if (looks_like_naca(spec)) {
+    src.kind = ShapeSource::Kind::kNaca;
+    src.section = naca_section(spec, kShapePointsPerSurface, false);
+    return src;
+  }
+  std::error_code ec;
+  if (!fs::is_regular_file(spec, ec)) {
+    throw InputError("shape '" + spec + "': no such file, and not a NACA designation (e.g. " +
+                     "naca2412, naca23012)");
+  }
+  std::ifstream in(spec, std::ios::binary);
+  if (!in) throw InputError("shape '" + spec + "': cannot read the file");
+  std::stringstream ss;
+  ss << in.rdbuf();
+  const std::string text = ss.str();
+  std::string ext = fs::path(spec).extension().string();
+  for (char& c : ext) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  const auto first = text.find_first_not_of(" \t\r\n");
+  if (ext == ".json" || (first != std::string::npos && text[first] == '{')) {
+    nlohmann::json j;
+    try {
+      j = nlohmann::json::parse(text);
+    } catch (const nlohmann::json::parse_error& e) {
+      throw InputError(spec + ": not valid JSON (" + std::string(e.what()) + ")");
+    }
+    src.kind = ShapeSource::Kind::kCst;
+    src.cst = cst_from_json(j, spec);
+    const std::string name =
+        j.contains("name") && j["name"].is_string() ? j["name"].get<std::string>() : spec;
+    src.section = cst_section(*src.cst, kShapePointsPerSurface, name);
+    return src;
+  }
+  src.kind = ShapeSource::Kind::kCoordinates;
+  CoordinateFile file = parse_coordinates(text, spec, ext == ".csv");
+  src.section = std::move(file.section);
+  src.normalisation = file.normalisation;
+  return src;
+}
+
+Section load_shape(const std::string& spec) {
+  return load_shape_source(spec).section;
+}
+
+std::optional<CstShape> load_cst_shape(const std::string& spec) {
+  return load_shape_source(spec).cst;
+}
+
+}  // namespace fulmar
