@@ -1,6 +1,6 @@
 #include "geometry/metrics.h"
 
-#include <Eigen/LU>
+#include <Eigen/QR>
 #include <algorithm>
 #include <cmath>
 #include <numbers>
@@ -76,44 +76,50 @@ bool segments_meet(double ax, double ay, double bx, double by, double cx, double
          on(cx, cy, dx, dy, ax, ay, o3) || on(cx, cy, dx, dy, bx, by, o4);
 }
 
-// Radius of curvature at the nose. Each surface near the nose is a graph x(y) with a vertical
-// tangent at the nose (the point of minimum x); fitting x - x_le = c2 dy^2 + c3 dy^3 + c4 dy^4
-// through the three points nearest the nose on that side gives its nose curvature 2 c2 to third
-// order. One-sided fits matter: NACA and CST noses carry |dy|^3 terms of opposite sign on the two
-// sides, which a spline or any polynomial across the nose follows only to first or second order
-// (the spline curvature is 0.75 % low for NACA 0012 at 120 points per surface). The radius is the
-// inverse of the two sides' mean curvature. Falls back to the spline curvature when there are not
-// three points on a side or they do not run away from the nose in y.
+// Radius of curvature at the nose. Near the nose each surface is a graph x(y). Anchored at the
+// point nearest the nose (a data point, so free of any spline error), the fit
+//   x - x_a = c1 dy + c2 dy^2 + c3 dy^3 + c4 dy^4,   dy = y - y_a,
+// with c1 shared (the tangent is continuous) and c2..c4 per side, through four points on each
+// side (least squares, 8 rows, 7 unknowns) gives each side's curvature 2 c2 / (1 + c1^2)^1.5 to
+// third order. Separate sides matter: NACA and CST noses carry |dy|^3 terms of opposite sign on
+// the two sides, which a spline or any single polynomial across the nose follows only to first
+// or second order (the spline curvature is 0.75 % low for NACA 0012 at 120 points per surface).
+// The radius is the inverse of the two sides' mean curvature. Falls back to the spline curvature
+// when there are not four points on a side or they do not run monotonically away in y.
 double nose_radius(const SectionSurfaces& surf) {
   const SectionSpline& sp = surf.spline();
   const double s_le = surf.leading_edge_parameter();
-  const SplinePoint le = sp.at(s_le);
-  const double spline_radius = 1.0 / std::abs(le.curvature());
-  const double tol = 1e-12 * sp.length();
-  int up = sp.interval(s_le);                     // last knot at or before the nose
-  if (std::abs(sp.knot(up) - s_le) <= tol) --up;  // the nose is a knot: skip it
-  int low = sp.interval(s_le) + 1;                // first knot after the nose
-  if (low < sp.knot_count() && std::abs(sp.knot(low) - s_le) <= tol) ++low;
-  if (up - 2 < 0 || low + 2 >= sp.knot_count()) return spline_radius;
-  double curvature_sum = 0;
-  for (int side = 0; side < 2; ++side) {
-    Eigen::Matrix3d v;
-    Eigen::Vector3d rhs;
-    double previous = 0;
-    for (int r = 0; r < 3; ++r) {
-      const int i = side == 0 ? up - r : low + r;
-      const double dy = std::abs(sp.knot_y(i) - le.y);
-      if (!(dy > previous)) return spline_radius;
-      previous = dy;
-      v(r, 0) = dy * dy;
-      v(r, 1) = dy * dy * dy;
-      v(r, 2) = dy * dy * dy * dy;
-      rhs[r] = sp.knot_x(i) - le.x;
-    }
-    const Eigen::Vector3d c = v.partialPivLu().solve(rhs);
-    curvature_sum += 2 * c[0];
+  const double spline_radius = 1.0 / std::abs(sp.at(s_le).curvature());
+  int anchor = sp.interval(s_le);
+  if (sp.knot(anchor + 1) - s_le < s_le - sp.knot(anchor)) ++anchor;
+  if (anchor - 4 < 0 || anchor + 4 >= sp.knot_count()) return spline_radius;
+  const double xa = sp.knot_x(anchor), ya = sp.knot_y(anchor);
+  double scale = 0;
+  for (int r = 1; r <= 4; ++r) {
+    scale = std::max(
+        {scale, std::abs(sp.knot_y(anchor - r) - ya), std::abs(sp.knot_y(anchor + r) - ya)});
   }
-  const double mean = 0.5 * curvature_sum;
+  Eigen::Matrix<double, 8, 7> v = Eigen::Matrix<double, 8, 7>::Zero();
+  Eigen::Matrix<double, 8, 1> rhs;
+  for (int side = 0; side < 2; ++side) {
+    double previous = 0;
+    for (int r = 1; r <= 4; ++r) {
+      const int i = side == 0 ? anchor - r : anchor + r;
+      const double dy = (sp.knot_y(i) - ya) / scale;  // upper side: dy > 0, lower: dy < 0
+      const double u = std::abs(dy);
+      if (!(u > previous) || (side == 0) != (dy > 0)) return spline_radius;
+      previous = u;
+      const int row = 4 * side + r - 1;
+      v(row, 0) = dy;
+      v(row, 1 + 3 * side) = u * u;
+      v(row, 2 + 3 * side) = u * u * u;
+      v(row, 3 + 3 * side) = u * u * u * u;
+      rhs[row] = (sp.knot_x(i) - xa) / scale;
+    }
+  }
+  const Eigen::Matrix<double, 7, 1> c = v.colPivHouseholderQr().solve(rhs);
+  const double slope = std::pow(1 + c[0] * c[0], 1.5);
+  const double mean = 0.5 * (2 * c[1] + 2 * c[4]) / slope / scale;
   return mean > 0 ? 1.0 / mean : spline_radius;
 }
 
@@ -122,6 +128,10 @@ double nose_radius(const SectionSurfaces& surf) {
 SectionSurfaces::SectionSurfaces(const Section& section) : spline_(section.points) {
   s_le_ = spline_.minimum_x();
   k_le_ = spline_.interval(s_le_);
+  const int n = spline_.knot_count() - 1;
+  const double te_x = 0.5 * (spline_.knot_x(0) + spline_.knot_x(n));
+  const double te_y = 0.5 * (spline_.knot_y(0) + spline_.knot_y(n));
+  chord_slope_ = te_x > 0 ? te_y / te_x : 0.0;
 }
 
 double SectionSurfaces::surface_y(bool upper, double x) const {

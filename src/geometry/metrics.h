@@ -1,9 +1,13 @@
 #pragma once
 // Geometric measures of a section. Thickness and camber are measured vertically (along y) at a
 // chord station: thickness(x) = y_upper(x) - y_lower(x) (the spar depth at x), camber(x) =
-// (y_upper(x) + y_lower(x)) / 2. The surfaces are a not-a-knot parametric cubic spline through
-// the points (geometry/spline.h), split at its point of minimum x (the leading edge). All lengths
-// in chord fractions for a chord-normalised section.
+// (y_upper(x) + y_lower(x)) / 2 - x y_te / x_te, the height of the mid-line above the chord
+// line from the origin to the trailing-edge midpoint (x_te, y_te). For a normalised section y_te
+// is 0; the term keeps camber unchanged by the shear y -> y + k x that a CST fit's trailing-edge
+// heights absorb (a fitted section's trailing-edge midpoint may sit slightly off y = 0). The
+// surfaces are a not-a-knot parametric cubic spline through the points (geometry/spline.h), split
+// at its point of minimum x (the leading edge). All lengths in chord fractions for a
+// chord-normalised section.
 #include <optional>
 #include <utility>
 
@@ -18,7 +22,8 @@ struct SectionMetrics {
   double camber = 0;        // camber(x) of largest magnitude (signed) over [0, 1]; 0 if symmetric
   double camber_x = 0;      // its x (0 for a symmetric section)
   double le_radius = 0;     // radius of curvature at the leading edge (inverse of the mean
-                            // of the two surfaces' nose curvatures, one-sided local fits)
+                            // of the two surfaces' nose curvatures from local fits through
+                            // the four points on each side of the nose)
   double te_gap = 0;        // distance between the first and last points
   double te_angle_deg = 0;  // wedge angle between the surface tangents at the trailing edge,
                             // degrees (negative if the surfaces cross there)
@@ -35,7 +40,7 @@ class SectionSurfaces {
   double upper_y(double x) const;
   double lower_y(double x) const;
   double thickness_at(double x) const { return upper_y(x) - lower_y(x); }
-  double camber_at(double x) const { return 0.5 * (upper_y(x) + lower_y(x)); }
+  double camber_at(double x) const { return 0.5 * (upper_y(x) + lower_y(x)) - chord_slope_ * x; }
   const SectionSpline& spline() const { return spline_; }
   double leading_edge_parameter() const { return s_le_; }
 
@@ -43,7 +48,8 @@ class SectionSurfaces {
   double surface_y(bool upper, double x) const;
   SectionSpline spline_;
   double s_le_ = 0;
-  int k_le_ = 0;  // knot interval holding the leading edge
+  int k_le_ = 0;            // knot interval holding the leading edge
+  double chord_slope_ = 0;  // slope of the chord line from the origin to the TE midpoint
 };
 
 SectionMetrics section_metrics(const Section& section);
