@@ -11,11 +11,23 @@ constexpr double kTwoPi = 2.0 * std::numbers::pi;
 constexpr double kCoincident = 1e-12;  // relative to the panel length
 
 struct Local {
-  double x, y, L, r1, r2, ln1, ln2;
+  double x, y, L, r1s, r2s, ln1, ln2;  // r1s, r2s: squared distances to the ends
 };
 
 // `log_scale` replaces ln r at an end the point coincides with; in the stream function every such
 // ln r is multiplied by a factor that vanishes there, so the choice does not matter.
+Local local_frame(const Frame& f, const Eigen::Vector2d& p) {
+  const Eigen::Vector2d d = p - f.a;
+  Local l;
+  l.x = d.dot(f.t);
+  l.y = d.dot(f.n);
+  l.L = f.length;
+  if (l.y == 0.0) l.y = 0.0;
+  l.r1s = l.x * l.x + l.y * l.y;
+  l.r2s = (l.x - l.L) * (l.x - l.L) + l.y * l.y;
+  return l;
+}
+
 Local local(const Frame& f, const Eigen::Vector2d& p, double log_scale) {
   const Eigen::Vector2d d = p - f.a;
   Local l;
@@ -23,12 +35,11 @@ Local local(const Frame& f, const Eigen::Vector2d& p, double log_scale) {
   l.y = d.dot(f.n);
   l.L = f.length;
   if (l.y == 0.0) l.y = 0.0;  // no negative zero: atan2 must see the left-side limit
-  l.r1 = std::hypot(l.x, l.y);
-  l.r2 = std::hypot(l.x - l.L, l.y);
-  const double eps = kCoincident * l.L;
-  const double lnz = std::log(log_scale);
-  l.ln1 = l.r1 > eps ? std::log(l.r1) : lnz;
-  l.ln2 = l.r2 > eps ? std::log(l.r2) : lnz;
+  l.r1s = l.x * l.x + l.y * l.y;
+  l.r2s = (l.x - l.L) * (l.x - l.L) + l.y * l.y;
+  const double eps2 = kCoincident * kCoincident * l.L * l.L;
+  l.ln1 = l.r1s > eps2 ? 0.5 * std::log(l.r1s) : std::log(log_scale);
+  l.ln2 = l.r2s > eps2 ? 0.5 * std::log(l.r2s) : std::log(log_scale);
   return l;
 }
 
@@ -36,8 +47,9 @@ double integral_ln(const Local& l, double dtheta) {  // Int_0^L ln r dxi
   return l.x * l.ln1 - (l.x - l.L) * l.ln2 - l.L + l.y * dtheta;
 }
 
-double dtheta_left(const Local& l) {  // theta2 - theta1, left-side limit on the panel
-  return std::atan2(l.y, l.x - l.L) - std::atan2(l.y, l.x);
+// theta2 - theta1 = arg((p - b) / (p - a)), left-side limit on the panel (y = +0 gives +pi).
+double dtheta_left(const Local& l) {
+  return std::atan2(l.y * l.L, l.x * (l.x - l.L) + l.y * l.y);
 }
 
 // theta2 - theta1 for velocities: on the panel itself (ends included) the mean of both sides.
@@ -66,11 +78,29 @@ Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b) {
 void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb) {
   const Local l = local(f, p, 1.0);
   const double i0 = integral_ln(l, dtheta_left(l));
-  const double j = 0.5 * l.r2 * l.r2 * l.ln2 - 0.25 * (l.L - l.x) * (l.L - l.x) -
-                   0.5 * l.r1 * l.r1 * l.ln1 + 0.25 * l.x * l.x;
+  const double j = 0.5 * l.r2s * l.ln2 - 0.25 * (l.L - l.x) * (l.L - l.x) - 0.5 * l.r1s * l.ln1 +
+                   0.25 * l.x * l.x;
   const double i1 = l.x * i0 + j;  // Int_0^L xi ln r dxi
   wa = (i0 - i1 / l.L) / kTwoPi;
   wb = i1 / (l.L * kTwoPi);
+}
+
+void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double ln1, double ln2, double& wa,
+                       double& wb) {
+  Local l = local_frame(f, p);
+  l.ln1 = ln1;
+  l.ln2 = ln2;
+  const double i0 = integral_ln(l, dtheta_left(l));
+  const double j = 0.5 * l.r2s * l.ln2 - 0.25 * (l.L - l.x) * (l.L - l.x) - 0.5 * l.r1s * l.ln1 +
+                   0.25 * l.x * l.x;
+  const double i1 = l.x * i0 + j;
+  wa = (i0 - i1 / l.L) / kTwoPi;
+  wb = i1 / (l.L * kTwoPi);
+}
+
+double half_log_distance_squared(const Eigen::Vector2d& p, const Eigen::Vector2d& q, double scale) {
+  const double r2 = (p - q).squaredNorm();
+  return r2 > kCoincident * kCoincident * scale * scale ? 0.5 * std::log(r2) : 0.0;
 }
 
 double psi_vortex_constant(const Frame& f, const Eigen::Vector2d& p) {
@@ -78,8 +108,8 @@ double psi_vortex_constant(const Frame& f, const Eigen::Vector2d& p) {
   return integral_ln(l, dtheta_left(l)) / kTwoPi;
 }
 
-double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut) {
-  const Local l = local(f, p, 1.0);
+namespace {
+double source_psi(const Local& l, Cut cut) {
   double k = 0.0;
   if (cut == Cut::kRight) {
     // Standard atan2 (cut along -t of each element), continued into y < 0 through the side ahead
@@ -94,6 +124,19 @@ double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut) {
     k = l.x * t1 + l.y * l.ln1 - (l.x - l.L) * t2 - l.y * l.ln2;
   }
   return k / kTwoPi;
+}
+}  // namespace
+
+double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut) {
+  return source_psi(local(f, p, 1.0), cut);
+}
+
+double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, double ln1, double ln2,
+                           Cut cut) {
+  Local l = local_frame(f, p);
+  l.ln1 = ln1;
+  l.ln2 = ln2;
+  return source_psi(l, cut);
 }
 
 void velocity_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double log_scale,

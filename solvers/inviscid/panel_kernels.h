@@ -21,6 +21,12 @@ Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b);
 
 // Stream-function weights of a linear vortex sheet: psi = wa * gamma_a + wb * gamma_b.
 void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb);
+// Same with ln|p - a| and ln|p - b| given (shared by the two panels meeting at a node when many
+// panels are assembled at one field point); use half_log_distance_squared for them.
+void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double ln1, double ln2, double& wa,
+                       double& wb);
+// ln|p - q|, or 0 when p and q coincide (distance < 1e-12 scale).
+double half_log_distance_squared(const Eigen::Vector2d& p, const Eigen::Vector2d& q, double scale);
 // Stream function of a constant vortex sheet of unit strength.
 double psi_vortex_constant(const Frame& f, const Eigen::Vector2d& p);
 
@@ -31,6 +37,9 @@ enum class Cut {
 };
 // Stream function of a constant source sheet of unit strength.
 double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, Cut cut);
+// Same with ln|p - a| and ln|p - b| given (see the vortex fast path).
+double psi_source_constant(const Frame& f, const Eigen::Vector2d& p, double ln1, double ln2,
+                           Cut cut);
 
 // Velocities (global x, y) induced at p. `log_scale`: when p coincides with a panel end
 // (distance < 1e-12 L) the ln r of that end is replaced by ln(log_scale) (a finite part; the

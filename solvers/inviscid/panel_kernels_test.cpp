@@ -107,3 +107,26 @@ TEST(PanelKernels, OutwardCutKeepsStreamFunctionContinuousOnTheLeft) {
 
 }  // namespace
 }  // namespace fulmar::panel
+
+namespace fulmar::panel {
+namespace {
+
+TEST(PanelKernels, SharedLogFastPathEqualsDirect) {
+  for (const Eigen::Vector2d& p : kPoints) {
+    double wa = 0, wb = 0, fa = 0, fb = 0;
+    psi_vortex_linear(kPanel, p, wa, wb);
+    const Eigen::Vector2d b = kPanel.a + kPanel.length * kPanel.t;
+    psi_vortex_linear(kPanel, p, half_log_distance_squared(p, kPanel.a, 1.0),
+                      half_log_distance_squared(p, b, 1.0), fa, fb);
+    EXPECT_NEAR(fa, wa, 1e-14);
+    EXPECT_NEAR(fb, wb, 1e-14);
+    for (Cut cut : {Cut::kRight, Cut::kForward}) {
+      EXPECT_NEAR(psi_source_constant(kPanel, p, half_log_distance_squared(p, kPanel.a, 1.0),
+                                      half_log_distance_squared(p, b, 1.0), cut),
+                  psi_source_constant(kPanel, p, cut), 1e-14);
+    }
+  }
+}
+
+}  // namespace
+}  // namespace fulmar::panel

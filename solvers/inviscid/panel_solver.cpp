@@ -150,11 +150,18 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
 
   // Unknowns: gamma_0..gamma_N, psi_0. Rows 0..N: psi(node i) = psi_0; row N+1: Kutta.
   MatrixXd a = MatrixXd::Zero(n + 2, n + 2);
-  for (int j = 0; j < n; ++j) {
-    const panel::Frame f = panel::frame(row(nodes_, j), row(nodes_, j + 1));
-    for (int i = 0; i <= n; ++i) {
+  std::vector<panel::Frame> frames;
+  frames.reserve(n);
+  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
+  VectorXd ln_r(n + 1);  // ln of the distances from the field node to every node
+  for (int i = 0; i <= n; ++i) {
+    const Vector2d p = row(nodes_, i);
+    for (int j = 0; j <= n; ++j) {
+      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
+    }
+    for (int j = 0; j < n; ++j) {
       double wa = 0.0, wb = 0.0;
-      panel::psi_vortex_linear(f, row(nodes_, i), wa, wb);
+      panel::psi_vortex_linear(frames[j], p, ln_r(j), ln_r(j + 1), wa, wb);
       a(i, j) += wa;
       a(i, j + 1) += wb;
     }
@@ -437,10 +444,20 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad) const {
 
   // Stream function of unit panel sources at the nodes -> change of the vortex strengths.
   MatrixXd b = MatrixXd::Zero(n + 2, np);
-  for (int p = 0; p < np; ++p) {
-    const panel::Cut cut = p < nps ? panel::Cut::kRight : panel::Cut::kForward;
-    for (int i = 0; i <= n; ++i)
-      b(i, p) = -panel::psi_source_constant(frames[p], row(nodes_, i), cut);
+  VectorXd ln_r(ns + nw);  // ln of the distances from the field node to every station
+  for (int i = 0; i <= n; ++i) {
+    const Vector2d p = row(nodes_, i);
+    for (int j = 0; j < ns; ++j)
+      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
+    for (int k = 0; k < nw; ++k)
+      ln_r(ns + k) = panel::half_log_distance_squared(p, row(m.wake, k), chord_);
+    for (int j = 0; j < nps; ++j) {
+      b(i, j) = -panel::psi_source_constant(frames[j], p, ln_r(j), ln_r(j + 1), panel::Cut::kRight);
+    }
+    for (int k = 0; k < npw; ++k) {
+      b(i, nps + k) = -panel::psi_source_constant(frames[nps + k], p, ln_r(ns + k),
+                                                  ln_r(ns + k + 1), panel::Cut::kForward);
+    }
   }
   if (sharp_) {
     b.row(0).setZero();
@@ -487,19 +504,18 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad) const {
   m.edge_velocity(ns) = 0.5 * (q(0) - q(n));
   wake_sigma.row(0) = 0.5 * (dgamma.row(0) - dgamma.row(n));
 
-  // Sources from mass defects.
-  MatrixXd dsigma = MatrixXd::Zero(np, nst);
-  for (int j = 0; j < n; ++j) {
-    dsigma(j, j) = 1.0 / frames[j].length;
-    dsigma(j, j + 1) = -1.0 / frames[j].length;
-  }
-  for (int k = 0; k < npw; ++k) {
-    dsigma(nps + k, ns + k) = -1.0 / frames[nps + k].length;
-    dsigma(nps + k, ns + k + 1) = 1.0 / frames[nps + k].length;
-  }
-  m.mass_influence.resize(nst, nst);
-  m.mass_influence.topRows(ns).noalias() = dgamma.topRows(ns) * dsigma;
-  m.mass_influence.bottomRows(nw).noalias() = wake_sigma * dsigma;
+  // Sources from mass defects: each panel source is a difference of two station masses, so
+  // each column of D combines at most two columns of d(ue)/d(sigma).
+  m.mass_influence.setZero(nst, nst);
+  auto add_panel = [&](int panel, int station_a, int station_b, double sign) {
+    const double w = sign / frames[panel].length;  // sigma = w (m_b - m_a)
+    m.mass_influence.col(station_b).head(ns) += w * dgamma.col(panel).head(ns);
+    m.mass_influence.col(station_a).head(ns) -= w * dgamma.col(panel).head(ns);
+    m.mass_influence.col(station_b).tail(nw) += w * wake_sigma.col(panel);
+    m.mass_influence.col(station_a).tail(nw) -= w * wake_sigma.col(panel);
+  };
+  for (int j = 0; j < n; ++j) add_panel(j, j, j + 1, -1.0);
+  for (int k = 0; k < npw; ++k) add_panel(nps + k, ns + k, ns + k + 1, 1.0);
   return m;
 }
 
