@@ -128,5 +128,20 @@ TEST(PanelKernels, SharedLogFastPathEqualsDirect) {
   }
 }
 
+// A straight line source of uniform strength from A to B induces along its own line, at a
+// point P between, the velocity (sigma / 2 pi) ln(|P - A| / |P - B|) toward B (integral of the
+// point-source field). Cut into unequal collinear panels, the finite part taken at the shared
+// node must reproduce it exactly: the singular logs of the two panels cancel.
+TEST(PanelKernels, CollinearUniformSourcesFinitePartIsExact) {
+  const Eigen::Vector2d a(0.0, 0.0), p(0.3, 0.1), b(1.5, 0.5);
+  const Frame left = frame(a, p), right = frame(p, b);
+  const double scale = std::sqrt(left.length * right.length);
+  const Eigen::Vector2d v =
+      velocity_source_constant(left, p, scale) + velocity_source_constant(right, p, scale);
+  const double exact = std::log((p - a).norm() / (b - p).norm()) / (2.0 * std::numbers::pi);
+  EXPECT_NEAR(v.dot(left.t), exact, 1e-13);
+  EXPECT_NEAR(v.dot(left.n), 0.0, 1e-13);  // on the line, the mean of both sides
+}
+
 }  // namespace
 }  // namespace fulmar::panel

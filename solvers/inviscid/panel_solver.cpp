@@ -292,7 +292,7 @@ void InviscidSolver::loads_from_speed(double alpha_rad, const VectorXd& q,
   out.cl_pressure = (-force.x() * sa + force.y() * ca) / chord_;
   out.cd_pressure = (force.x() * ca + force.y() * sa) / chord_;
   out.cm = -moment / (chord_ * chord_);
-  out.cl = mach > 0.0 ? out.cl_pressure : out.cl_circulation;
+  out.cl = mach > 0.0 && correction_valid ? out.cl_pressure : out.cl_circulation;
 
   out.cp_min_node = 0;
   for (int i = 1; i < n_nodes; ++i) {

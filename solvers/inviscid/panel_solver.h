@@ -55,6 +55,7 @@ struct InviscidResult {
   double alpha = 0.0;           // rad
   double mach = 0.0;            // the free-stream Mach number used for the correction
   double cl = 0.0;              // lift coefficient: cl_circulation when mach = 0, else cl_pressure
+                                // (cl_circulation when the Karman-Tsien correction is invalid)
   double cl_circulation = 0.0;  // 2 Gamma / (V c) (Kutta-Joukowski; Prandtl-Glauert scaled if M>0)
   double cl_pressure = 0.0;     // from integrating the (corrected) Cp over the section panels
   double cd_pressure = 0.0;     // pressure drag from the same integral (zero in exact 2-D flow)
@@ -70,7 +71,9 @@ struct InviscidResult {
   int iterations = 0;   // for a target-cl solve: Newton steps taken (0 for a plain solve)
   std::string message;  // what happened, with the measured values
 
-  nlohmann::json to_json() const;  // the scalar results (no per-node vectors)
+  // The scalar results (no per-node vectors), alpha in degrees; cp_critical and
+  // critical_exceeded only when mach > 0.
+  nlohmann::json to_json() const;
 };
 
 // Influence data for a viscous-inviscid coupling at one angle of attack (Drela & Giles, AIAA J.

@@ -562,5 +562,28 @@ TEST(InviscidTrailingEdge, OpenAndClosedNacaAgree) {
   EXPECT_GT(sc.rcond(), 1e-10);
 }
 
+TEST(InviscidResultJson, CarriesTheScalars) {
+  InviscidOptions o;
+  o.mach = 0.3;
+  InviscidResult r;
+  InviscidSolver(kCases[1].kt.nodes(80), o).solve(deg(3.0), r);
+  const nlohmann::json j = r.to_json();
+  for (const char* key : {"alpha", "cl", "cm", "cp_min", "converged", "critical_exceeded"}) {
+    EXPECT_TRUE(j.contains(key)) << key;
+  }
+  EXPECT_NEAR(j["alpha"].get<double>(), 3.0, 1e-12);
+}
+
+// Far beyond the Karman-Tsien range the result says so and stays finite.
+TEST(KarmanTsien, InvalidCorrectionIsReportedNotCrashed) {
+  InviscidOptions o;
+  o.mach = 0.8;
+  InviscidResult r;
+  InviscidSolver(kCases[0].kt.nodes(160), o).solve(deg(30.0), r);
+  EXPECT_FALSE(r.converged);
+  EXPECT_TRUE(std::isfinite(r.cl) && std::isfinite(r.cm) && r.cp.allFinite() && r.ue.allFinite());
+  EXPECT_NE(r.message.find("Karman-Tsien"), std::string::npos);
+}
+
 }  // namespace
 }  // namespace fulmar
