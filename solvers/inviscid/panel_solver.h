@@ -86,7 +86,13 @@ struct InviscidResult {
 // sigma = d(m_BL)/ds_BL, i.e. sigma_j = -(m_{j+1} - m_j) / L_j on surface panel j (nodes j, j+1)
 // and sigma_k = (m_{k+1} - m_k) / L_k on wake panel k (wake nodes k, k+1). Positive sigma blows
 // out. The vortex strengths are re-solved with the sources through the factored system, so the
-// Kutta condition and constant stream function still hold.
+// Kutta condition and constant stream function still hold. Wake edge velocity: the free stream plus
+// all vortex and source panels (surface and wake) projected on the wake tangent at the node (mean
+// of the adjacent wake segments); at its own wake panels' ends the ln r singularity of each panel
+// is replaced by its finite part with the length scale sqrt(L_left L_right), which is exact for
+// equal strengths on collinear panels. Wake node 0 lies on the trailing edge, where the velocity
+// is not defined: its edge velocity is the mean trailing-edge speed (q_0 - q_N) / 2, and its row
+// of D is the same mean of rows 0 and N.
 struct CouplingModel {
   double alpha = 0.0;              // rad
   int surface_nodes = 0;           // N + 1
