@@ -121,7 +121,8 @@ TEST(CliInviscid, UnwritableOutputWritesNothing) {
 // geometry library: as is, in reverse (clockwise) order, with another point count, and twice
 // scaled, rotated and moved (by 3, 10 deg and by 0.5, -25 deg). Reversal, scaling and rotation
 // are undone by the reader's normalisation up to round-off (1e-6 allowed); another point count
-// changes the spline through the points by O(h^4) and the panel nodes with it (1e-3 allowed).
+// changes the spline through the points by O(h^4) and the panel nodes with it (measured: 7e-8
+// in cl, 1e-6 in cp_min; 1e-5 allowed).
 // The moved copies are compared with each other: the reader puts their chord through the point
 // farthest from the trailing edge, while the NACA table as given keeps its mean-line chord, which
 // for a cambered section differs by about 0.1 deg (a 0.011 change in cl at equal alpha).
@@ -154,7 +155,7 @@ TEST(CliInviscid, InvariantToHowTheSectionIsGiven) {
   const nlohmann::json m2 = analyze(write("moved2.dat", moved(0.5, -25.0, -1.0, 4.0)));
   for (const char* key : {"cl", "cm", "cp_min"}) {
     EXPECT_NEAR(rev[key].get<double>(), ref[key].get<double>(), 1e-6) << key;
-    EXPECT_NEAR(more[key].get<double>(), ref[key].get<double>(), 1e-3) << key;
+    EXPECT_NEAR(more[key].get<double>(), ref[key].get<double>(), 1e-5) << key;
     EXPECT_NEAR(m1[key].get<double>(), m2[key].get<double>(), 1e-6) << key;
   }
 }
