@@ -1,0 +1,576 @@
+#include "optimize/case_file.h"
+
+#include <cmath>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+#include "common/error.h"
+#include "geometry/naca.h"
+
+namespace fulmar::optimize {
+namespace {
+
+using nlohmann::json;
+
+std::string number_text(double v) {
+  std::ostringstream s;
+  s.precision(6);
+  s << v;
+  return s.str();
+}
+
+// A JSON node with its pointer path; object readers record the keys they consume so that any key
+// left over is reported as unknown.
+class Reader {
+ public:
+  Reader(const json& node, std::string path, const std::string* label)
+      : node_(&node), path_(std::move(path)), label_(label) {}
+
+  [[noreturn]] void fail(const std::string& rule) const { fail_at(path_, rule); }
+  [[noreturn]] void fail_at(const std::string& path, const std::string& rule) const {
+    throw InputError(*label_ + ": " + (path.empty() ? "/" : path) + ": " + rule);
+  }
+  const std::string& path() const { return path_; }
+  const json& node() const { return *node_; }
+
+  void expect_object() const {
+    if (!node_->is_object())
+      fail("must be an object (got " + std::string(node_->type_name()) + ")");
+  }
+  bool has(const std::string& key) {
+    expect_object();
+    return node_->contains(key);
+  }
+  Reader child(const std::string& key) {
+    expect_object();
+    if (!node_->contains(key)) fail_at(path_ + "/" + key, "missing required field");
+    used_.insert(key);
+    return Reader(node_->at(key), path_ + "/" + key, label_);
+  }
+  std::optional<Reader> optional_child(const std::string& key) {
+    expect_object();
+    if (!node_->contains(key) || node_->at(key).is_null()) {
+      used_.insert(key);
+      return std::nullopt;
+    }
+    return child(key);
+  }
+  // Reports the first key of this object that no reader asked for.
+  void finish() const {
+    for (auto it = node_->begin(); it != node_->end(); ++it) {
+      if (!used_.count(it.key())) fail_at(path_ + "/" + it.key(), "unknown key");
+    }
+  }
+
+  double number() const {
+    if (!node_->is_number()) fail("must be a number (got " + std::string(node_->type_name()) + ")");
+    const double v = node_->get<double>();
+    if (!std::isfinite(v)) fail("must be a finite number");
+    return v;
+  }
+  int integer() const {
+    if (!node_->is_number_integer())
+      fail("must be an integer (got " + std::string(node_->type_name()) + ")");
+    return node_->get<int>();
+  }
+  std::string string() const {
+    if (!node_->is_string()) fail("must be a string (got " + std::string(node_->type_name()) + ")");
+    return node_->get<std::string>();
+  }
+  bool boolean() const {
+    if (!node_->is_boolean())
+      fail("must be true or false (got " + std::string(node_->type_name()) + ")");
+    return node_->get<bool>();
+  }
+  std::vector<Reader> array() const {
+    if (!node_->is_array()) fail("must be an array (got " + std::string(node_->type_name()) + ")");
+    std::vector<Reader> items;
+    for (size_t i = 0; i < node_->size(); ++i)
+      items.emplace_back((*node_)[i], path_ + "/" + std::to_string(i), label_);
+    return items;
+  }
+
+  // Range checks that name the rule.
+  double positive() const {
+    const double v = number();
+    if (!(v > 0)) fail("must be > 0 (got " + number_text(v) + ")");
+    return v;
+  }
+  double in_range(double lo, double hi, bool lo_open, bool hi_open) const {
+    const double v = number();
+    const bool ok = (lo_open ? v > lo : v >= lo) && (hi_open ? v < hi : v <= hi);
+    if (!ok)
+      fail("must be in " + std::string(lo_open ? "(" : "[") + number_text(lo) + ", " +
+           number_text(hi) + (hi_open ? ")" : "]") + " (got " + number_text(v) + ")");
+    return v;
+  }
+
+  double number_or(const std::string& key, double fallback) {
+    auto c = optional_child(key);
+    return c ? c->number() : fallback;
+  }
+
+ private:
+  const json* node_;
+  std::string path_;
+  const std::string* label_;
+  std::set<std::string> used_;
+};
+
+Airplane read_airplane(Reader r, double& wing_to_section) {
+  Airplane a;
+  a.mass = r.child("mass").positive();
+  a.wing_area = r.child("wing_area").positive();
+  a.chord = r.child("chord").positive();
+  if (auto f = r.optional_child("wing_to_section"))
+    wing_to_section = f->in_range(0, 1.2, true, false);
+  r.finish();
+  return a;
+}
+
+TransitionScenario read_scenario(Reader r, const TransitionScenario& defaults) {
+  TransitionScenario s = defaults;
+  if (auto c = r.optional_child("name")) s.name = c->string();
+  if (auto c = r.optional_child("ncrit")) s.ncrit = c->in_range(0, 20, true, false);
+  if (auto c = r.optional_child("trip_upper")) s.trip_upper = c->in_range(0, 1, true, false);
+  if (auto c = r.optional_child("trip_lower")) s.trip_lower = c->in_range(0, 1, true, false);
+  if (auto c = r.optional_child("weight")) s.weight = c->positive();
+  r.finish();
+  return s;
+}
+
+double read_mach(Reader r) {
+  // Above about M 0.7 sections of this thickness meet shocks, which the analysis does not model
+  // (Karman-Tsien compressibility only: common practice).
+  return r.in_range(0, 0.7, false, true);
+}
+
+DesignPoint read_point(Reader r, const std::optional<Airplane>& airplane, size_t index) {
+  DesignPoint p;
+  p.name = "point " + std::to_string(index + 1);
+  if (auto c = r.optional_child("name")) p.name = c->string();
+  if (auto c = r.optional_child("weight")) p.weight = c->positive();
+  if (auto c = r.optional_child("cm_min")) p.cm_min = c->in_range(-1, 1, false, false);
+  const bool direct = r.has("cl") || r.has("reynolds");
+  const bool flight = r.has("speed") || r.has("altitude");
+  if (direct && flight)
+    r.fail("give either a flight point (speed, altitude) or cl, reynolds and mach, not both");
+  if (flight) {
+    if (!airplane)
+      r.fail_at(r.path() + "/speed", "a flight point needs the airplane (missing /airplane)");
+    p.from_airplane = true;
+    p.speed = r.child("speed").positive();
+    Reader alt = r.child("altitude");
+    p.altitude = alt.in_range(0, kAtmosphereCeiling, false, false);
+    if (auto c = r.optional_child("temperature_offset"))
+      p.temperature_offset = c->in_range(-60, 60, false, false);
+    const CruiseConditions cc =
+        cruise_conditions(*airplane, p.speed, p.altitude, p.temperature_offset);
+    p.cl = cc.cl;
+    p.reynolds = cc.reynolds;
+    p.mach = cc.mach;
+    if (p.mach >= 0.7)
+      r.fail_at(r.path() + "/speed", "gives Mach " + number_text(p.mach) + ", must be < 0.7");
+    if (p.cl > 2.0)
+      r.fail_at(r.path() + "/speed", "gives a cruise cl of " + number_text(p.cl) +
+                                         ", above 2 (too slow for this airplane)");
+  } else {
+    p.cl = r.child("cl").in_range(-0.5, 2.0, false, false);
+    p.reynolds = r.child("reynolds").in_range(1e4, 1e9, false, false);
+    p.mach = r.has("mach") ? read_mach(r.child("mach")) : 0.0;
+  }
+  r.finish();
+  return p;
+}
+
+LandingPoint read_landing(Reader r, const std::optional<Airplane>& airplane, double factor) {
+  LandingPoint l;
+  l.present = true;
+  l.wing_to_section = factor;
+  const bool stall = r.has("stall_speed");
+  if (stall) {
+    if (!airplane)
+      r.fail_at(r.path() + "/stall_speed", "a stall speed needs the airplane (missing /airplane)");
+    l.stall_speed = r.child("stall_speed").positive();
+    l.altitude =
+        r.has("altitude") ? r.child("altitude").in_range(0, kAtmosphereCeiling, false, false) : 0.0;
+    double dt = 0;
+    if (auto c = r.optional_child("temperature_offset")) dt = c->in_range(-60, 60, false, false);
+    const StallConditions sc = stall_conditions(*airplane, l.stall_speed, l.altitude, factor, dt);
+    l.reynolds = sc.reynolds;
+    l.mach = sc.mach;
+    l.cl_max_required = sc.cl_max_required;
+    if (l.cl_max_required > 2.4)
+      r.fail_at(r.path() + "/stall_speed",
+                "needs a section cl_max of " + number_text(l.cl_max_required) +
+                    ", beyond what a clean section reaches (about 2.4 at most: common practice)");
+  } else {
+    l.reynolds = r.child("reynolds").in_range(1e4, 1e9, false, false);
+    l.mach = r.has("mach") ? read_mach(r.child("mach")) : 0.0;
+  }
+  r.finish();
+  return l;
+}
+
+void read_min_max(Reader r, double& min, double& max, double lo, double hi) {
+  if (auto c = r.optional_child("min")) min = c->in_range(lo, hi, false, false);
+  if (auto c = r.optional_child("max")) max = c->in_range(lo, hi, false, false);
+  if (std::isnan(min) && std::isnan(max)) r.fail("needs min or max");
+  if (!std::isnan(min) && !std::isnan(max) && min > max)
+    r.fail_at(r.path() + "/max",
+              "must be >= min " + number_text(min) + " (got " + number_text(max) + ")");
+  r.finish();
+}
+
+double read_min_only(Reader r, double lo, double hi, bool lo_open) {
+  const double v = r.child("min").in_range(lo, hi, lo_open, false);
+  r.finish();
+  return v;
+}
+
+Constraints read_constraints(Reader r, const std::vector<DesignPoint>& points,
+                             const LandingPoint& landing, std::vector<DesignPoint>& points_out) {
+  Constraints c;
+  points_out = points;
+  double max_cl = -1e9;
+  for (const auto& p : points) max_cl = std::max(max_cl, p.cl);
+
+  if (auto cm = r.optional_child("cl_max")) {
+    if (!landing.present) cm->fail("a cl_max limit needs the landing point (missing /landing)");
+    if (auto m = cm->optional_child("min")) {
+      c.cl_max_min = m->in_range(0, 3, true, false);
+      if (c.cl_max_min < max_cl)
+        m->fail("must be >= the cruise cl " + number_text(max_cl) +
+                " (the section must reach the largest design cl with margin)");
+      if (!std::isnan(landing.cl_max_required) && c.cl_max_min < landing.cl_max_required)
+        m->fail("must be >= " + number_text(landing.cl_max_required) +
+                ", the cl_max the stall speed requires (omit min to use that value)");
+    }
+    cm->finish();
+  }
+  if (std::isnan(c.cl_max_min) && landing.present) {
+    if (std::isnan(landing.cl_max_required))
+      r.fail_at(r.path() + "/cl_max/min",
+                "missing required field (the landing point gives no stall speed)");
+    c.cl_max_min = landing.cl_max_required;
+    if (c.cl_max_min < max_cl)
+      r.fail_at("/landing/stall_speed", "gives a required cl_max of " + number_text(c.cl_max_min) +
+                                            ", below the cruise cl " + number_text(max_cl));
+  }
+  if (auto cm = r.optional_child("cm")) {
+    const double v = read_min_only(*cm, -1, 1, false);
+    for (auto& p : points_out)
+      if (std::isnan(p.cm_min)) p.cm_min = v;
+  }
+  if (auto t = r.optional_child("thickness")) c.thickness_min = read_min_only(*t, 0, 0.5, true);
+  if (auto s = r.optional_child("spar")) {
+    for (Reader item : s->array()) {
+      SparLimit l;
+      l.x = item.child("x").in_range(0, 1, true, true);
+      l.min = item.child("min").in_range(0, 0.5, true, false);
+      if (!std::isnan(c.thickness_min) && l.min > c.thickness_min + 1e-12)
+        item.fail_at(item.path() + "/min", "must be <= the maximum-thickness limit " +
+                                               number_text(c.thickness_min) +
+                                               " (no section can be deeper at the spar)");
+      item.finish();
+      c.spars.push_back(l);
+    }
+  }
+  if (auto g = r.optional_child("te_gap")) read_min_max(*g, c.te_gap_min, c.te_gap_max, 0, 0.05);
+  if (auto a = r.optional_child("te_angle_deg"))
+    c.te_angle_min_deg = read_min_only(*a, 0, 60, false);
+  if (auto le = r.optional_child("le_radius")) c.le_radius_min = read_min_only(*le, 0, 0.1, true);
+  if (auto a = r.optional_child("area")) c.area_min = read_min_only(*a, 0, 0.4, true);
+  if (auto x = r.optional_child("thickness_x"))
+    read_min_max(*x, c.thickness_x_min, c.thickness_x_max, 0.05, 0.8);
+  if (auto v = r.optional_child("curvature_reversals")) {
+    if (auto u = v->optional_child("upper_max")) {
+      c.max_reversals_upper = u->integer();
+      if (c.max_reversals_upper < 0 || c.max_reversals_upper > 4) u->fail("must be in 0..4");
+    }
+    if (auto l = v->optional_child("lower_max")) {
+      c.max_reversals_lower = l->integer();
+      if (c.max_reversals_lower < 0 || c.max_reversals_lower > 4) l->fail("must be in 0..4");
+    }
+    v->finish();
+  }
+  r.finish();
+  return c;
+}
+
+Parameterization read_parameterization(Reader r) {
+  Parameterization p;
+  for (const char* key : {"order_upper", "order_lower"}) {
+    if (auto c = r.optional_child(key)) {
+      const int n = c->integer();
+      // Below 2 a surface cannot hold a realistic section; above 12 the Bernstein basis gets
+      // ill-conditioned and invites waviness (Kulfan 2008 uses orders up to about 10).
+      if (n < 2 || n > 12) c->fail("must be in 2..12 (got " + std::to_string(n) + ")");
+      (std::string(key) == "order_upper" ? p.order_upper : p.order_lower) = n;
+    }
+  }
+  if (auto b = r.optional_child("bounds")) {
+    if (auto m = b->optional_child("margin")) p.margin = m->in_range(0, 1, true, false);
+    if (auto u = b->optional_child("upper")) read_min_max(*u, p.upper_min, p.upper_max, -2, 2);
+    if (auto l = b->optional_child("lower")) read_min_max(*l, p.lower_min, p.lower_max, -2, 2);
+    b->finish();
+  }
+  if (auto t = r.optional_child("te_gap")) p.te_gap = t->in_range(0, 0.05, false, false);
+  r.finish();
+  return p;
+}
+
+Baseline read_baseline(Reader r, const std::filesystem::path& base_dir) {
+  Baseline b;
+  b.json_path = r.path();
+  const int kinds = int(r.has("naca")) + int(r.has("file")) + int(r.has("cst"));
+  if (kinds != 1) r.fail("give exactly one of naca, file or cst");
+  if (auto n = r.optional_child("naca")) {
+    b.kind = Baseline::Kind::naca;
+    try {
+      b.naca = parse_naca(n->string()).digits;
+    } catch (const InputError& e) {
+      n->fail(e.what());
+    }
+  }
+  if (auto f = r.optional_child("file")) {
+    b.kind = Baseline::Kind::file;
+    std::filesystem::path p = f->string();
+    if (p.is_relative()) p = base_dir / p;
+    if (!std::filesystem::is_regular_file(p)) f->fail("no such file: " + p.string());
+    b.file = p;
+  }
+  if (auto c = r.optional_child("cst")) {
+    b.kind = Baseline::Kind::cst;
+    c->expect_object();
+    b.cst = c->node();
+  }
+  r.finish();
+  return b;
+}
+
+OptimizerOptions read_optimizer(Reader r) {
+  OptimizerOptions o;
+  if (auto c = r.optional_child("algorithm"))
+    o.algorithm = algorithm_from_string(c->string(), c->path());
+  if (auto c = r.optional_child("max_evaluations")) {
+    o.max_evaluations = c->integer();
+    if (o.max_evaluations < 1)
+      c->fail("must be >= 1 (got " + std::to_string(o.max_evaluations) + ")");
+  }
+  if (auto c = r.optional_child("xtol_rel")) o.xtol_rel = c->in_range(0, 1, false, true);
+  if (auto c = r.optional_child("ftol_rel")) o.ftol_rel = c->in_range(0, 1, false, true);
+  if (auto c = r.optional_child("time_limit_s")) o.time_limit_s = c->positive();
+  if (auto c = r.optional_child("seed")) {
+    const int s = c->integer();
+    if (s < 0) c->fail("must be >= 0");
+    o.seed = unsigned(s);
+  }
+  if (auto c = r.optional_child("starts")) {
+    o.starts = c->integer();
+    if (o.starts < 1 || o.starts > 100) c->fail("must be in 1..100");
+  }
+  if (auto c = r.optional_child("fd_step")) o.fd_step = c->in_range(1e-8, 1e-2, false, false);
+  if (auto c = r.optional_child("constraint_tol"))
+    o.constraint_tol = c->in_range(0, 0.1, false, false);
+  r.finish();
+  return o;
+}
+
+AnalysisOptions read_analysis(Reader r) {
+  AnalysisOptions a;
+  if (auto c = r.optional_child("panels")) a.panels = c->integer();
+  if (auto c = r.optional_child("verify_panels")) a.verify_panels = c->integer();
+  if (auto c = r.optional_child("polar_alpha")) {
+    a.polar_alpha_min = c->child("min").in_range(-30, 30, false, false);
+    a.polar_alpha_max = c->child("max").in_range(-30, 30, false, false);
+    if (c->has("step")) a.polar_alpha_step = c->child("step").in_range(0.05, 5, false, false);
+    c->finish();
+  }
+  r.finish();
+  try {
+    a.Validate();
+  } catch (const InputError& e) {
+    r.fail(e.what());
+  }
+  return a;
+}
+
+OutputOptions read_outputs(Reader r) {
+  OutputOptions o;
+  if (auto c = r.optional_child("points")) {
+    o.points = c->integer();
+    if (o.points < 21 || o.points > 2001)
+      c->fail("must be in 21..2001 (got " + std::to_string(o.points) + ")");
+  }
+  if (auto c = r.optional_child("plots")) o.plots = c->boolean();
+  if (auto c = r.optional_child("report")) o.report = c->boolean();
+  if (auto c = r.optional_child("polars")) o.polars = c->boolean();
+  r.finish();
+  return o;
+}
+
+size_t line_of_offset(const std::string& text, size_t offset) {
+  size_t line = 1;
+  for (size_t i = 0; i < offset && i < text.size(); ++i)
+    if (text[i] == '\n') ++line;
+  return line;
+}
+
+}  // namespace
+
+std::string to_string(Algorithm a) {
+  switch (a) {
+    case Algorithm::slsqp:
+      return "slsqp";
+    case Algorithm::mma:
+      return "mma";
+    case Algorithm::cobyla:
+      return "cobyla";
+    case Algorithm::isres:
+      return "isres";
+    case Algorithm::multistart:
+      return "multistart";
+  }
+  return "slsqp";
+}
+
+Algorithm algorithm_from_string(const std::string& name, const std::string& where) {
+  for (Algorithm a : {Algorithm::slsqp, Algorithm::mma, Algorithm::cobyla, Algorithm::isres,
+                      Algorithm::multistart})
+    if (to_string(a) == name) return a;
+  throw InputError(where + ": unknown algorithm \"" + name +
+                   "\" (one of slsqp, mma, cobyla, isres, multistart)");
+}
+
+void OptimizerOptions::Validate() const {
+  if (max_evaluations < 1)
+    throw InputError("optimizer.max_evaluations = " + std::to_string(max_evaluations) +
+                     ": must be >= 1");
+  if (!(xtol_rel >= 0 && xtol_rel < 1))
+    throw InputError("optimizer.xtol_rel = " + number_text(xtol_rel) + ": must be in [0, 1)");
+  if (!(ftol_rel >= 0 && ftol_rel < 1))
+    throw InputError("optimizer.ftol_rel = " + number_text(ftol_rel) + ": must be in [0, 1)");
+  if (!(time_limit_s > 0))
+    throw InputError("optimizer.time_limit_s = " + number_text(time_limit_s) + ": must be > 0");
+  if (starts < 1)
+    throw InputError("optimizer.starts = " + std::to_string(starts) + ": must be >= 1");
+  if (!(fd_step >= 1e-8 && fd_step <= 1e-2))
+    throw InputError("optimizer.fd_step = " + number_text(fd_step) + ": must be in [1e-8, 1e-2]");
+  if (!(constraint_tol >= 0 && constraint_tol <= 0.1))
+    throw InputError("optimizer.constraint_tol = " + number_text(constraint_tol) +
+                     ": must be in [0, 0.1]");
+}
+
+void AnalysisOptions::Validate() const {
+  // Fewer than 60 panels cannot resolve the leading-edge suction peak; more than 600 buys nothing
+  // for a section and costs time (common practice for panel methods).
+  if (panels < 60 || panels > 600)
+    throw InputError("analysis.panels = " + std::to_string(panels) + ": must be in 60..600");
+  if (verify_panels < panels || verify_panels > 800)
+    throw InputError("analysis.verify_panels = " + std::to_string(verify_panels) +
+                     ": must be >= panels (" + std::to_string(panels) + ") and <= 800");
+  if (!(polar_alpha_max > polar_alpha_min))
+    throw InputError("analysis.polar_alpha.max = " + number_text(polar_alpha_max) +
+                     ": must be > min " + number_text(polar_alpha_min));
+  if (!(polar_alpha_step > 0) || (polar_alpha_max - polar_alpha_min) / polar_alpha_step > 400)
+    throw InputError("analysis.polar_alpha.step = " + number_text(polar_alpha_step) +
+                     ": must be > 0 and give at most 400 angles");
+}
+
+Case parse_case(const std::string& text, const std::string& label,
+                const std::filesystem::path& base_dir) {
+  json root;
+  try {
+    root = json::parse(text);
+  } catch (const json::parse_error& e) {
+    throw InputError(label + ": line " + std::to_string(line_of_offset(text, e.byte)) +
+                     ": not valid JSON (" + e.what() + ")");
+  }
+  Case c;
+  c.source = root;
+  Reader r(root, "", &label);
+  r.expect_object();
+  {
+    Reader v = r.child("schema_version");
+    const int version = v.integer();
+    if (version != kCaseSchemaVersion)
+      v.fail("unsupported schema version " + std::to_string(version) + " (this fulmar reads " +
+             std::to_string(kCaseSchemaVersion) + ")");
+  }
+  c.name = r.child("name").string();
+  if (auto d = r.optional_child("description")) c.description = d->string();
+  if (auto n = r.optional_child("notes")) {
+    if (!c.description.empty()) c.description += "\n";
+    c.description += n->string();
+  }
+  double factor = kWingToSectionFactor;
+  if (auto a = r.optional_child("airplane")) c.airplane = read_airplane(*a, factor);
+
+  TransitionScenario nominal;
+  if (auto t = r.optional_child("transition")) {
+    if (auto n = t->optional_child("ncrit")) nominal.ncrit = n->in_range(0, 20, true, false);
+    if (auto u = t->optional_child("trip_upper"))
+      nominal.trip_upper = u->in_range(0, 1, true, false);
+    if (auto l = t->optional_child("trip_lower"))
+      nominal.trip_lower = l->in_range(0, 1, true, false);
+    nominal.name = "nominal";
+    if (auto s = t->optional_child("scenarios")) {
+      const auto items = s->array();
+      if (items.empty()) s->fail("must hold at least one scenario");
+      for (const Reader& item : items) c.scenarios.push_back(read_scenario(item, nominal));
+    }
+    t->finish();
+  }
+  if (c.scenarios.empty()) c.scenarios.push_back(nominal);
+
+  {
+    Reader pts = r.child("design_points");
+    const auto items = pts.array();
+    if (items.empty()) pts.fail("must hold at least one design point");
+    if (items.size() > 8) pts.fail("at most 8 design points");
+    for (size_t i = 0; i < items.size(); ++i)
+      c.points.push_back(read_point(items[i], c.airplane, i));
+  }
+  if (auto l = r.optional_child("landing")) c.landing = read_landing(*l, c.airplane, factor);
+
+  {
+    std::vector<DesignPoint> points;
+    const json empty = json::object();
+    auto k = r.optional_child("constraints");
+    c.constraints = read_constraints(k ? *k : Reader(empty, "/constraints", &label), c.points,
+                                     c.landing, points);
+    c.points = points;
+  }
+  if (auto p = r.optional_child("parameterization")) c.parameterization = read_parameterization(*p);
+  {
+    const Parameterization& p = c.parameterization;
+    if (!std::isnan(p.te_gap)) {
+      if (!std::isnan(c.constraints.te_gap_min) && p.te_gap < c.constraints.te_gap_min)
+        r.fail_at("/parameterization/te_gap",
+                  "must be >= the te_gap limit " + number_text(c.constraints.te_gap_min));
+      if (!std::isnan(c.constraints.te_gap_max) && p.te_gap > c.constraints.te_gap_max)
+        r.fail_at("/parameterization/te_gap",
+                  "must be <= the te_gap limit " + number_text(c.constraints.te_gap_max));
+    }
+  }
+  c.baseline = read_baseline(r.child("baseline"), base_dir);
+  if (auto o = r.optional_child("optimizer")) c.optimizer = read_optimizer(*o);
+  if (auto a = r.optional_child("analysis")) c.analysis = read_analysis(*a);
+  if (auto o = r.optional_child("outputs")) c.outputs = read_outputs(*o);
+  r.finish();
+  return c;
+}
+
+Case load_case(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path.string() + ": cannot read the case file");
+  std::stringstream ss;
+  ss << in.rdbuf();
+  Case c = parse_case(ss.str(), path.string(), path.parent_path());
+  c.path = path;
+  return c;
+}
+
+}  // namespace fulmar::optimize

@@ -1,0 +1,447 @@
+#include "optimize/driver.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <fstream>
+#include <limits>
+#include <map>
+#include <nlopt.hpp>
+#include <ostream>
+#include <random>
+#include <sstream>
+#include <thread>
+
+#include "common/atomic_file.h"
+#include "common/error.h"
+
+namespace fulmar::optimize {
+namespace {
+
+using nlohmann::json;
+using Clock = std::chrono::steady_clock;
+
+constexpr const char* kCheckpointFormat = "fulmar-checkpoint";
+constexpr int kCheckpointVersion = 1;
+
+// Thrown inside the NLopt callbacks to end the search (NLopt turns it into a forced stop).
+struct StopSearch {};
+
+std::string clock_text(double seconds) {
+  const long s = std::max(0L, long(std::lround(seconds)));
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%02ld:%02ld:%02ld", s / 3600, (s / 60) % 60, s % 60);
+  return buf;
+}
+
+std::string num(double v, int precision = 6) {
+  if (!std::isfinite(v)) return "-";
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.*g", precision, v);
+  return buf;
+}
+
+template <class F>
+void parallel_for(int n, int threads, F&& f) {
+  threads = std::max(1, std::min(threads, n));
+  if (threads == 1) {
+    for (int i = 0; i < n; ++i) f(i);
+    return;
+  }
+  std::atomic<int> next{0};
+  std::vector<std::thread> pool;
+  for (int t = 0; t < threads; ++t)
+    pool.emplace_back([&] {
+      for (int i = next++; i < n; i = next++) f(i);
+    });
+  for (auto& th : pool) th.join();
+}
+
+class Search {
+ public:
+  Search(const SearchProblem& problem, const SearchSettings& settings)
+      : p_(problem), s_(settings), n_(problem.start.size()) {
+    threads_ = s_.threads > 0 ? s_.threads : int(std::max(1u, std::thread::hardware_concurrency()));
+    if (s_.resume) load_checkpoint();
+    started_ = Clock::now();
+  }
+
+  SearchResult run() {
+    SearchResult r;
+    try {
+      if (s_.options.algorithm == Algorithm::multistart) {
+        run_multistart(r);
+      } else {
+        r.converged = run_local(s_.options.algorithm, p_.start, r.stop_reason);
+      }
+    } catch (const StopSearch&) {
+      r.converged = false;
+    }
+    if (!stop_reason_.empty()) {
+      r.stop_reason = stop_reason_;
+      r.converged = false;
+    }
+    // The start design is always analysed, even when a limit stops the search at once.
+    if (history_.empty()) {
+      try {
+        batch({p_.start});
+      } catch (const StopSearch&) {
+      }
+    }
+    write_checkpoint();
+    r.history = history_;
+    r.interrupted = interrupted_;
+    r.iterations = iterations_;
+    r.elapsed_s = elapsed();
+    r.replayed = replayed_;
+    r.best = best_feasible(history_, s_.options.constraint_tol);
+    r.best_any = r.best;
+    if (r.best_any < 0) {
+      double least = std::numeric_limits<double>::infinity();
+      for (size_t i = 0; i < history_.size(); ++i) {
+        const double w = history_[i].ok ? worst_constraint(history_[i]) : 1e300;
+        if (w < least) least = w, r.best_any = int(i);
+      }
+    }
+    return r;
+  }
+
+ private:
+  double elapsed() const {
+    return prior_elapsed_ + std::chrono::duration<double>(Clock::now() - started_).count();
+  }
+
+  void check_limits() {
+    if (s_.stop && s_.stop->load()) {
+      interrupted_ = true;
+      stop_reason_ = "interrupted by a signal";
+      throw nlopt::forced_stop();
+    }
+    if (int(history_.size()) >= s_.options.max_evaluations) {
+      stop_reason_ =
+          "evaluation budget of " + std::to_string(s_.options.max_evaluations) + " analyses spent";
+      throw nlopt::forced_stop();
+    }
+    if (elapsed() >= s_.options.time_limit_s) {
+      stop_reason_ = "time limit of " + num(s_.options.time_limit_s) + " s reached";
+      throw nlopt::forced_stop();
+    }
+  }
+
+  Evaluation safe_evaluate(const std::vector<double>& x) const {
+    Evaluation e;
+    try {
+      e = p_.evaluate(x);
+    } catch (const std::exception& ex) {
+      e = Evaluation{};
+      e.ok = false;
+      e.status = std::string("analysis threw: ") + ex.what();
+      e.objective = std::numeric_limits<double>::quiet_NaN();
+    }
+    e.x = x;
+    // A failed analysis must still give NLopt finite numbers that steer away from it.
+    if (!std::isfinite(e.objective)) {
+      e.ok = false;
+      e.objective = 1e3;
+    }
+    e.constraints.resize(p_.constraint_names.size(), 1.0);
+    for (double& c : e.constraints)
+      if (!std::isfinite(c)) c = 1.0, e.ok = false;
+    if (!e.ok && e.status.empty()) e.status = "failed";
+    return e;
+  }
+
+  // Indices in history of the evaluations of `xs`, analysing the missing ones in parallel and
+  // appending them in the order of `xs` (so history does not depend on thread timing).
+  std::vector<size_t> batch(const std::vector<std::vector<double>>& xs) {
+    std::vector<std::vector<double>> missing;
+    for (const auto& x : xs)
+      if (!cache_.count(x) && std::find(missing.begin(), missing.end(), x) == missing.end())
+        missing.push_back(x);
+    std::vector<Evaluation> fresh(missing.size());
+    std::vector<int> to_compute;
+    for (size_t i = 0; i < missing.size(); ++i) {
+      auto it = replay_.find(missing[i]);
+      if (it != replay_.end()) {
+        fresh[i] = it->second;
+        replay_.erase(it);
+        ++replayed_;
+      } else {
+        to_compute.push_back(int(i));
+      }
+    }
+    parallel_for(int(to_compute.size()), threads_,
+                 [&](int k) { fresh[to_compute[k]] = safe_evaluate(missing[to_compute[k]]); });
+    for (auto& e : fresh) {
+      if (!e.ok && s_.progress)
+        *s_.progress << "  analysis failed (kept out of the search): " << e.status << "\n";
+      cache_[e.x] = history_.size();
+      history_.push_back(std::move(e));
+    }
+    std::vector<size_t> idx;
+    for (const auto& x : xs) idx.push_back(cache_.at(x));
+    return idx;
+  }
+
+  // The design and its forward-difference neighbours (backward at an upper bound).
+  std::vector<std::vector<double>> stencil(const double* x, bool with_gradient,
+                                           std::vector<double>& steps) const {
+    std::vector<std::vector<double>> xs{std::vector<double>(x, x + n_)};
+    steps.assign(n_, 0.0);
+    if (!with_gradient) return xs;
+    for (size_t i = 0; i < n_; ++i) {
+      std::vector<double> xi = xs[0];
+      double h = s_.options.fd_step;
+      if (xi[i] + h > p_.upper[i]) h = -h;
+      xi[i] += h;
+      // Round the step to what the design vector can hold, so the quotient uses the true step.
+      steps[i] = xi[i] - xs[0][i];
+      xs.push_back(std::move(xi));
+    }
+    return xs;
+  }
+
+  double objective(unsigned n, const double* x, double* grad) {
+    check_limits();
+    ++iterations_;
+    std::vector<double> steps;
+    const auto idx = batch(stencil(x, grad != nullptr, steps));
+    const Evaluation& e = history_[idx[0]];
+    if (grad)
+      for (unsigned i = 0; i < n; ++i)
+        grad[i] = (history_[idx[i + 1]].objective - e.objective) / steps[i];
+    progress_line(e);
+    write_checkpoint();
+    return e.objective;
+  }
+
+  void constraints(unsigned m, double* result, unsigned n, const double* x, double* grad) {
+    std::vector<double> steps;
+    const auto idx = batch(stencil(x, grad != nullptr, steps));
+    const Evaluation& e = history_[idx[0]];
+    for (unsigned k = 0; k < m; ++k) result[k] = e.constraints[k];
+    if (grad)
+      for (unsigned k = 0; k < m; ++k)
+        for (unsigned i = 0; i < n; ++i)
+          grad[k * n + i] = (history_[idx[i + 1]].constraints[k] - e.constraints[k]) / steps[i];
+  }
+
+  void progress_line(const Evaluation& e) {
+    if (!s_.progress) return;
+    const int best = best_feasible(history_, s_.options.constraint_tol);
+    double worst = -std::numeric_limits<double>::infinity();
+    std::string worst_name = "-";
+    for (size_t k = 0; k < e.constraints.size(); ++k)
+      if (e.constraints[k] > worst) worst = e.constraints[k], worst_name = p_.constraint_names[k];
+    const double t = elapsed();
+    std::ostringstream line;
+    line << "iteration " << iterations_ << "  evaluations " << history_.size() << "/"
+         << s_.options.max_evaluations << "  objective " << num(e.objective)
+         << "  worst constraint " << num(worst, 3) << " (" << worst_name << ")"
+         << "  best feasible " << (best >= 0 ? num(history_[best].objective) : std::string("none"))
+         << "  elapsed " << clock_text(t) << "  left "
+         << std::max(0, s_.options.max_evaluations - int(history_.size())) << " evaluations, "
+         << clock_text(std::max(0.0, s_.options.time_limit_s - t))
+         << (replay_.empty() ? "" : "  (replaying the checkpoint)");
+    *s_.progress << line.str() << "\n" << std::flush;
+  }
+
+  static double objective_cb(unsigned n, const double* x, double* grad, void* data) {
+    return static_cast<Search*>(data)->objective(n, x, grad);
+  }
+  static void constraints_cb(unsigned m, double* result, unsigned n, const double* x, double* grad,
+                             void* data) {
+    static_cast<Search*>(data)->constraints(m, result, n, x, grad);
+  }
+
+  // Returns whether NLopt ended on its own tolerance.
+  bool run_local(Algorithm algorithm, const std::vector<double>& x0, std::string& reason) {
+    nlopt::algorithm a = nlopt::LD_SLSQP;
+    switch (algorithm) {
+      case Algorithm::slsqp:
+      case Algorithm::multistart:
+        a = nlopt::LD_SLSQP;
+        break;
+      case Algorithm::mma:
+        a = nlopt::LD_MMA;
+        break;
+      case Algorithm::cobyla:
+        a = nlopt::LN_COBYLA;
+        break;
+      case Algorithm::isres:
+        a = nlopt::GN_ISRES;
+        break;
+    }
+    nlopt::srand(s_.options.seed);
+    nlopt::opt opt(a, unsigned(n_));
+    opt.set_lower_bounds(p_.lower);
+    opt.set_upper_bounds(p_.upper);
+    opt.set_min_objective(&Search::objective_cb, this);
+    if (!p_.constraint_names.empty())
+      opt.add_inequality_mconstraint(
+          &Search::constraints_cb, this,
+          std::vector<double>(p_.constraint_names.size(), s_.options.constraint_tol));
+    opt.set_xtol_rel(s_.options.xtol_rel);
+    opt.set_ftol_rel(s_.options.ftol_rel);
+    if (a == nlopt::LN_COBYLA) {
+      std::vector<double> step(n_);
+      for (size_t i = 0; i < n_; ++i) step[i] = 0.1 * (p_.upper[i] - p_.lower[i]);
+      opt.set_initial_step(step);
+    }
+    std::vector<double> x = x0;
+    double f = 0;
+    try {
+      const nlopt::result res = opt.optimize(x, f);
+      switch (res) {
+        case nlopt::XTOL_REACHED:
+          reason = "converged: design change below xtol_rel";
+          return true;
+        case nlopt::FTOL_REACHED:
+          reason = "converged: objective change below ftol_rel";
+          return true;
+        case nlopt::SUCCESS:
+          reason = "converged";
+          return true;
+        default:
+          reason = "NLopt stopped with code " + std::to_string(int(res));
+          return false;
+      }
+    } catch (const nlopt::forced_stop&) {
+      if (stop_reason_.empty()) reason = "stopped";
+      throw StopSearch{};
+    } catch (const nlopt::roundoff_limited&) {
+      reason = "NLopt stopped: roundoff limited (no further progress possible)";
+      return false;
+    } catch (const std::exception& ex) {
+      if (!stop_reason_.empty()) throw StopSearch{};
+      reason = std::string("NLopt stopped: ") + ex.what();
+      return false;
+    }
+  }
+
+  void run_multistart(SearchResult& r) {
+    std::mt19937_64 rng(s_.options.seed);
+    bool all = true;
+    std::string reasons;
+    for (int k = 0; k < s_.options.starts; ++k) {
+      std::vector<double> x0 = p_.start;
+      if (k > 0) {
+        // Starts scattered around the baseline over half the bound range: far enough to find
+        // another basin, near enough to stay mostly among valid sections.
+        for (size_t i = 0; i < n_; ++i) {
+          const double u = double(rng() >> 11) * 0x1.0p-53 - 0.5;
+          x0[i] = std::clamp(p_.start[i] + 0.5 * u * (p_.upper[i] - p_.lower[i]), p_.lower[i],
+                             p_.upper[i]);
+        }
+      }
+      std::string reason;
+      all = run_local(Algorithm::slsqp, x0, reason) && all;
+      reasons += (reasons.empty() ? "" : "; ") + ("start " + std::to_string(k + 1) + ": " + reason);
+    }
+    r.converged = all;
+    r.stop_reason = reasons;
+  }
+
+  void write_checkpoint() const {
+    if (s_.checkpoint.empty()) return;
+    json evals = json::array();
+    for (const auto& e : history_) evals.push_back(to_json(e));
+    // Not yet replayed evaluations stay in the checkpoint so an interrupted replay loses nothing.
+    for (const auto& [x, e] : replay_) evals.push_back(to_json(e));
+    json j{{"format", kCheckpointFormat},   {"version", kCheckpointVersion},
+           {"fingerprint", s_.fingerprint}, {"elapsed_s", elapsed()},
+           {"iterations", iterations_},     {"evaluations", std::move(evals)}};
+    write_file_atomically(s_.checkpoint, j.dump() + "\n");
+  }
+
+  void load_checkpoint() {
+    std::ifstream in(s_.checkpoint, std::ios::binary);
+    if (!in)
+      throw InputError(s_.checkpoint.string() +
+                       ": no checkpoint to resume from (run without --resume first)");
+    json j;
+    try {
+      j = json::parse(in);
+      if (j.at("format") != kCheckpointFormat || j.at("version") != kCheckpointVersion)
+        throw InputError(s_.checkpoint.string() + ": not a fulmar checkpoint of version " +
+                         std::to_string(kCheckpointVersion));
+      if (j.at("fingerprint").get<std::string>() != s_.fingerprint)
+        throw InputError(s_.checkpoint.string() +
+                         ": the checkpoint belongs to another case (or the case file changed); "
+                         "run without --resume to start afresh");
+      prior_elapsed_ = j.at("elapsed_s").get<double>();
+      for (const auto& e : j.at("evaluations")) {
+        Evaluation ev = evaluation_from_json(e);
+        replay_[ev.x] = std::move(ev);
+      }
+    } catch (const json::exception& e) {
+      throw InputError(s_.checkpoint.string() + ": damaged checkpoint (" + e.what() + ")");
+    }
+  }
+
+  const SearchProblem& p_;
+  const SearchSettings& s_;
+  size_t n_;
+  int threads_ = 1;
+  std::vector<Evaluation> history_;
+  std::map<std::vector<double>, size_t> cache_;
+  std::map<std::vector<double>, Evaluation> replay_;
+  Clock::time_point started_;
+  double prior_elapsed_ = 0;
+  int iterations_ = 0;
+  int replayed_ = 0;
+  std::string stop_reason_;
+  bool interrupted_ = false;
+};
+
+}  // namespace
+
+json to_json(const Evaluation& e) {
+  return json{{"x", e.x},   {"objective", e.objective}, {"constraints", e.constraints},
+              {"ok", e.ok}, {"status", e.status},       {"detail", e.detail}};
+}
+
+Evaluation evaluation_from_json(const json& j) {
+  Evaluation e;
+  e.x = j.at("x").get<std::vector<double>>();
+  e.objective = j.at("objective").get<double>();
+  e.constraints = j.at("constraints").get<std::vector<double>>();
+  e.ok = j.at("ok").get<bool>();
+  e.status = j.at("status").get<std::string>();
+  e.detail = j.at("detail");
+  return e;
+}
+
+double worst_constraint(const Evaluation& e) {
+  double w = -std::numeric_limits<double>::infinity();
+  for (double c : e.constraints) w = std::max(w, c);
+  return w;
+}
+
+int best_feasible(const std::vector<Evaluation>& history, double tolerance) {
+  int best = -1;
+  for (size_t i = 0; i < history.size(); ++i) {
+    const Evaluation& e = history[i];
+    if (!e.ok || worst_constraint(e) > tolerance) continue;
+    if (best < 0 || e.objective < history[best].objective) best = int(i);
+  }
+  return best;
+}
+
+SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings) {
+  settings.options.Validate();
+  const size_t n = problem.start.size();
+  if (n == 0 || problem.lower.size() != n || problem.upper.size() != n)
+    throw InputError("search: the bounds and the start design must have the same, non-zero size");
+  for (size_t i = 0; i < n; ++i)
+    if (!(problem.lower[i] < problem.upper[i]) || problem.start[i] < problem.lower[i] ||
+        problem.start[i] > problem.upper[i])
+      throw InputError("search: design variable " + std::to_string(i) + " = " +
+                       num(problem.start[i]) + " lies outside its bounds [" +
+                       num(problem.lower[i]) + ", " + num(problem.upper[i]) + "]");
+  Search search(problem, settings);
+  return search.run();
+}
+
+}  // namespace fulmar::optimize

@@ -1,0 +1,171 @@
+// The whole optimization run with the test-only analytic evaluator (not physics; see
+// optimize/testing/analytic_evaluator.h): every output file, interruption by a signal, and resume.
+#include "optimize/run.h"
+
+#include <gtest/gtest.h>
+#include <unistd.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "common/error.h"
+#include "geometry/cst.h"
+#include "optimize/testing/analytic_evaluator.h"
+
+namespace fulmar::optimize {
+namespace {
+
+namespace fs = std::filesystem;
+using nlohmann::json;
+
+Case small_case(int budget = 200) {
+  json j = json::parse(R"({
+    "schema_version": 1, "name": "test glider",
+    "airplane": {"mass": 420, "wing_area": 12.5, "chord": 0.9},
+    "design_points": [{"name": "cruise", "speed": 38, "altitude": 1000},
+                      {"name": "climb", "cl": 0.9, "reynolds": 1.6e6, "weight": 0.5}],
+    "landing": {"stall_speed": 21},
+    "transition": {"scenarios": [{"name": "free", "weight": 3}, {"name": "tripped", "trip_upper": 0.1}]},
+    "constraints": {"cm": {"min": -0.1}, "thickness": {"min": 0.13}, "spar": [{"x": 0.3, "min": 0.12}]},
+    "parameterization": {"order_upper": 3, "order_lower": 3},
+    "analysis": {"polar_alpha": {"min": -4, "max": 12, "step": 1}},
+    "outputs": {"points": 101},
+    "baseline": {"naca": "0018"}
+  })");
+  j["optimizer"]["max_evaluations"] = budget;
+  return parse_case(j.dump(), "test.json", ".");
+}
+
+fs::path scratch(const std::string& tag) {
+  fs::path d = fs::temp_directory_path() / ("fulmar_run_" + tag + "_" + std::to_string(::getpid()));
+  fs::remove_all(d);
+  return d;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+// Sets the stop flag after a number of analyses, as a signal handler would.
+class StoppingEvaluator : public testing::AnalyticEvaluator {
+ public:
+  std::atomic<bool>* stop = nullptr;
+  int stop_after = 0;
+  SectionAnalysis analyse(const Section& s, const AnalysisRequest& r) const override {
+    SectionAnalysis a = AnalyticEvaluator::analyse(s, r);
+    if (stop && analyses.load() >= stop_after) stop->store(true);
+    return a;
+  }
+};
+
+TEST(Run, WritesEveryResultFile) {
+  const fs::path dir = scratch("all");
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  o.caution = "CAUTION TEXT";
+  const RunOutcome out = run_optimization(small_case(), ev, o);
+  const json& s = out.summary;
+  for (const char* f :
+       {"optimized.dat", "optimized.csv", "optimized_cst.json", "polar_baseline.csv",
+        "polar_optimized.csv", "history.csv", "summary.json", "report.md", "sections.svg",
+        "polars.svg", "lift_moment.svg", "cp_cruise.svg", "convergence.svg", "checkpoint.json"}) {
+    ASSERT_TRUE(fs::exists(dir / f)) << f;
+    EXPECT_EQ(slurp(dir / f).find("nan"), std::string::npos) << f;
+  }
+  EXPECT_EQ(json::parse(slurp(dir / "summary.json")), s);
+  // The CST JSON is a SHAPE fulmar reads back.
+  const CstShape shape =
+      cst_from_json(json::parse(slurp(dir / "optimized_cst.json")), "optimized_cst.json");
+  EXPECT_EQ(shape.upper.size(), 4);
+  // 101 points asked for: 51 per surface, the leading edge shared, plus the name line.
+  std::istringstream dat(slurp(dir / "optimized.dat"));
+  int lines = 0;
+  for (std::string l; std::getline(dat, l);) lines += l.empty() ? 0 : 1;
+  EXPECT_EQ(lines, 102);
+  for (const char* block : {"baseline", "optimized"}) {
+    ASSERT_TRUE(s.contains(block));
+    ASSERT_EQ(s[block]["points"].size(), 4u);  // 2 design points x 2 transition scenarios
+    for (const auto& p : s[block]["points"])
+      for (const char* k : {"cd", "cl", "cm", "alpha", "transition_upper", "transition_lower"})
+        EXPECT_TRUE(p.contains(k)) << k;
+    EXPECT_TRUE(s[block]["cl_max"].is_number());
+    EXPECT_TRUE(s[block]["t_c"].is_number());
+  }
+  ASSERT_TRUE(s["constraints"].is_array());
+  for (const auto& k : s["constraints"])
+    for (const char* key : {"name", "value", "limit", "satisfied"})
+      EXPECT_TRUE(k.contains(key)) << key;
+  const std::string history = slurp(dir / "history.csv");
+  EXPECT_EQ(s["evaluations"].get<size_t>(),
+            size_t(std::count(history.begin(), history.end(), '\n') - 1));
+  EXPECT_TRUE(s["feasible"].get<bool>());
+  EXPECT_GT(s["drag_reduction_percent"].get<double>(), 10.0);
+  EXPECT_EQ(s["verify_panels"].get<int>(), 240);
+  EXPECT_TRUE(s["files"].contains("coordinates"));
+  const std::string report = slurp(dir / "report.md");
+  EXPECT_NE(report.find("CAUTION TEXT"), std::string::npos);
+  EXPECT_NE(report.find("| constraint | value | limit | met |"), std::string::npos);
+  fs::remove_all(dir);
+}
+
+TEST(Run, InterruptWritesTheBestDesignAndResumeReachesTheSameOptimum) {
+  const fs::path whole_dir = scratch("whole"), dir = scratch("interrupted");
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.threads = 2;
+  o.output_dir = whole_dir;
+  const RunOutcome whole = run_optimization(small_case(), ev, o);
+
+  std::atomic<bool> stop{false};
+  StoppingEvaluator stopping;
+  stopping.stop = &stop;
+  stopping.stop_after = 30;
+  RunOptions o1 = o;
+  o1.output_dir = dir;
+  o1.stop = &stop;
+  const RunOutcome first = run_optimization(small_case(), stopping, o1);
+  EXPECT_TRUE(first.interrupted);
+  EXPECT_TRUE(first.summary["interrupted"].get<bool>());
+  EXPECT_TRUE(fs::exists(dir / "optimized.dat"));
+  EXPECT_LT(first.summary["evaluations"].get<int>(), whole.summary["evaluations"].get<int>());
+
+  testing::AnalyticEvaluator fresh;
+  RunOptions o2 = o;
+  o2.output_dir = dir;
+  o2.resume = true;
+  const RunOutcome resumed = run_optimization(small_case(), fresh, o2);
+  EXPECT_FALSE(resumed.interrupted);
+  EXPECT_EQ(resumed.summary["evaluations"], whole.summary["evaluations"]);
+  EXPECT_EQ(resumed.summary["optimized"]["cst"], whole.summary["optimized"]["cst"]);
+  EXPECT_EQ(resumed.summary["optimized"]["weighted_cd"], whole.summary["optimized"]["weighted_cd"]);
+  EXPECT_GT(resumed.summary["replayed_from_checkpoint"].get<int>(), 0);
+  fs::remove_all(whole_dir);
+  fs::remove_all(dir);
+}
+
+TEST(Run, ResumeWithoutCheckpointWritesNothing) {
+  const fs::path dir = scratch("nockpt");
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.output_dir = dir;
+  o.resume = true;
+  EXPECT_THROW(run_optimization(small_case(), ev, o), InputError);
+  EXPECT_FALSE(fs::exists(dir));
+  EXPECT_EQ(ev.analyses.load(), 0);
+}
+
+TEST(Run, MissingParentDirectoryIsAnInputError) {
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.output_dir = scratch("noparent") / "deeper" / "out";
+  EXPECT_THROW(run_optimization(small_case(), ev, o), InputError);
+}
+
+}  // namespace
+}  // namespace fulmar::optimize

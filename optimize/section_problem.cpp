@@ -1,0 +1,407 @@
+#include "optimize/section_problem.h"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+
+#include "common/error.h"
+#include "geometry/coordinates_io.h"
+#include "geometry/metrics.h"
+#include "geometry/naca.h"
+
+namespace fulmar::optimize {
+namespace {
+
+using nlohmann::json;
+
+std::string text(double v) {
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.6g", v);
+  return buf;
+}
+
+// Bernstein sum sum_i a_i B_{i,n}(x) by de Casteljau (stable for all orders used here).
+double bernstein_sum(const Eigen::VectorXd& a, double x) {
+  std::vector<double> b(a.data(), a.data() + a.size());
+  for (size_t r = 1; r < b.size(); ++r)
+    for (size_t i = 0; i + r < b.size(); ++i) b[i] = (1 - x) * b[i] + x * b[i + 1];
+  return b.empty() ? 0.0 : b[0];
+}
+
+// Maximum of f over [0, 1]: a dense cosine-spaced scan, then golden-section refinement around the
+// best sample, so the result moves smoothly with the shape (no jumps from sample to sample).
+template <class F>
+std::pair<double, double> maximum_of(F&& f) {
+  constexpr int n = 240;
+  int best = 0;
+  double best_v = -1e300;
+  std::vector<double> xs(n + 1);
+  for (int i = 0; i <= n; ++i) {
+    xs[i] = 0.5 * (1 - std::cos(std::numbers::pi * i / n));
+    const double v = f(xs[i]);
+    if (v > best_v) best_v = v, best = i;
+  }
+  double a = xs[std::max(0, best - 1)], b = xs[std::min(n, best + 1)];
+  const double g = (std::sqrt(5.0) - 1) / 2;
+  double c = b - g * (b - a), d = a + g * (b - a);
+  double fc = f(c), fd = f(d);
+  for (int it = 0; it < 60 && b - a > 1e-12; ++it) {
+    if (fc > fd) {
+      b = d, d = c, fd = fc, c = b - g * (b - a), fc = f(c);
+    } else {
+      a = c, c = d, fc = fd, d = a + g * (b - a), fd = f(d);
+    }
+  }
+  const double x = 0.5 * (a + b);
+  const double v = f(x);
+  return v >= best_v ? std::make_pair(x, v) : std::make_pair(xs[best], best_v);
+}
+
+std::string scenario_label(const DesignPoint& p, const TransitionScenario& s, size_t scenarios) {
+  return scenarios > 1 ? p.name + "/" + s.name : p.name;
+}
+
+// See GeometryMeasures::excess_reversal_*. y'' by central differences of the analytic surface on
+// x in [0.03, 0.97] (the nose's sqrt singularity and the trailing-edge closure excluded).
+double excess_reversal(const CstShape& s, Surface surface, int allowed) {
+  constexpr int n = 160;
+  constexpr double h = 1e-4;
+  std::vector<std::pair<int, double>> runs;  // sign, peak |y''|
+  for (int i = 0; i <= n; ++i) {
+    const double x = 0.03 + 0.94 * i / n;
+    const double d2 =
+        (cst_y(s, surface, x + h) - 2 * cst_y(s, surface, x) + cst_y(s, surface, x - h)) / (h * h);
+    const int sign = d2 > 0 ? 1 : (d2 < 0 ? -1 : 0);
+    if (sign == 0) continue;
+    if (runs.empty() || runs.back().first != sign) runs.push_back({sign, 0.0});
+    runs.back().second = std::max(runs.back().second, std::abs(d2));
+  }
+  std::vector<double> strengths;
+  for (size_t j = 0; j + 1 < runs.size(); ++j)
+    strengths.push_back(std::min(runs[j].second, runs[j + 1].second));
+  std::sort(strengths.rbegin(), strengths.rend());
+  return size_t(allowed) < strengths.size() ? strengths[size_t(allowed)] : 0.0;
+}
+
+}  // namespace
+
+double cst_thickness_at(const CstShape& shape, double x) {
+  return cst_upper_y(shape, x) - cst_lower_y(shape, x);
+}
+
+GeometryMeasures measure_geometry(const CstShape& s, const std::vector<SparLimit>& spars,
+                                  int allowed_upper, int allowed_lower) {
+  GeometryMeasures g;
+  auto [tx, t] = maximum_of([&](double x) { return cst_thickness_at(s, x); });
+  g.thickness = t, g.thickness_x = tx;
+  auto camber = [&](double x) { return 0.5 * (cst_upper_y(s, x) + cst_lower_y(s, x)); };
+  auto [cxp, cp] = maximum_of(camber);
+  auto [cxn, cn] = maximum_of([&](double x) { return -camber(x); });
+  if (cp >= cn)
+    g.camber = cp, g.camber_x = cxp;
+  else
+    g.camber = -cn, g.camber_x = cxn;
+  for (const auto& sp : spars) g.spar_thickness.push_back(cst_thickness_at(s, sp.x));
+  g.te_gap = s.te_upper - s.te_lower;
+  // dy/dx at x = 1: C'(1) = -1 and C(1) = 0, so y' = -a_n + y_te on each surface.
+  const double slope_u = -s.upper[s.upper.size() - 1] + s.te_upper;
+  const double slope_l = -s.lower[s.lower.size() - 1] + s.te_lower;
+  g.te_angle_deg = (std::atan(slope_l) - std::atan(slope_u)) * 180 / std::numbers::pi;
+  // Nose radius of a CST surface with class exponent 0.5: r = a_0^2 / 2 (Kulfan 2008).
+  g.le_radius = 0.5 * std::min(s.upper[0] * s.upper[0], s.lower[0] * s.lower[0]);
+  // Area by the trapezoidal rule in theta, x = (1 - cos theta)/2: the sqrt(x) nose becomes smooth.
+  constexpr int n = 400;
+  double area = 0;
+  for (int i = 0; i <= n; ++i) {
+    const double th = std::numbers::pi * i / n;
+    const double x = 0.5 * (1 - std::cos(th));
+    const double w = (i == 0 || i == n) ? 0.5 : 1.0;
+    area += w * cst_thickness_at(s, x) * 0.5 * std::sin(th);
+  }
+  g.area = area * std::numbers::pi / n;
+  double gap = 1e300;
+  for (int i = 0; i <= 200; ++i) {
+    const double x = 0.5 * (1 - std::cos(std::numbers::pi * i / 200));
+    gap = std::min(gap, bernstein_sum(s.upper, x) - bernstein_sum(s.lower, x));
+  }
+  g.min_shape_gap = gap;
+  const CurvatureReversals rev = curvature_reversals(cst_section(s, 161, "design"));
+  g.reversals_upper = rev.upper;
+  g.reversals_lower = rev.lower;
+  g.excess_reversal_upper = excess_reversal(s, Surface::kUpper, allowed_upper);
+  g.excess_reversal_lower = excess_reversal(s, Surface::kLower, allowed_lower);
+  return g;
+}
+
+json to_json(const GeometryMeasures& g) {
+  return json{{"thickness", g.thickness},
+              {"thickness_x", g.thickness_x},
+              {"camber", g.camber},
+              {"camber_x", g.camber_x},
+              {"spar_thickness", g.spar_thickness},
+              {"te_gap", g.te_gap},
+              {"te_angle_deg", g.te_angle_deg},
+              {"le_radius", g.le_radius},
+              {"area", g.area},
+              {"min_shape_gap", g.min_shape_gap},
+              {"curvature_reversals_upper", g.reversals_upper},
+              {"curvature_reversals_lower", g.reversals_lower},
+              {"excess_reversal_upper", g.excess_reversal_upper},
+              {"excess_reversal_lower", g.excess_reversal_lower}};
+}
+
+BaselineShape resolve_baseline(const Case& c) {
+  const Parameterization& p = c.parameterization;
+  const std::string where = c.path.string().empty() ? std::string("case") : c.path.string();
+  BaselineShape b;
+  Section source;
+  bool fit = true;
+  switch (c.baseline.kind) {
+    case Baseline::Kind::naca:
+      source = naca_section(c.baseline.naca, 201);
+      b.name = "NACA " + c.baseline.naca;
+      break;
+    case Baseline::Kind::file: {
+      try {
+        source = read_coordinates(c.baseline.file).section;
+      } catch (const InputError& e) {
+        throw InputError(where + ": " + c.baseline.json_path + "/file: " + e.what());
+      }
+      b.name = source.name.empty() ? c.baseline.file.filename().string() : source.name;
+      break;
+    }
+    case Baseline::Kind::cst: {
+      b.shape = cst_from_json(c.baseline.cst, where + ": " + c.baseline.json_path + "/cst");
+      b.name = c.baseline.cst.value("name", std::string("CST baseline"));
+      if (b.shape.upper.size() == p.order_upper + 1 && b.shape.lower.size() == p.order_lower + 1) {
+        fit = false;
+      } else {
+        source = cst_section(b.shape, 201, b.name);
+      }
+      break;
+    }
+  }
+  if (fit) {
+    const CstFit f = fit_cst(source, p.order_upper, p.order_lower);
+    b.shape = f.shape;
+    b.fit_deviation = f.max_deviation;
+  }
+  if (!std::isnan(p.te_gap)) {
+    // Keep the mean trailing-edge height, set the gap.
+    const double mid = 0.5 * (b.shape.te_upper + b.shape.te_lower);
+    b.shape.te_upper = mid + 0.5 * p.te_gap;
+    b.shape.te_lower = mid - 0.5 * p.te_gap;
+  }
+  return b;
+}
+
+CstShape DesignSpace::shape(const std::vector<double>& x) const {
+  CstShape s = layout;
+  const Eigen::Index nu = s.upper.size();
+  for (Eigen::Index i = 0; i < nu; ++i) s.upper[i] = x[size_t(i)];
+  for (Eigen::Index i = 0; i < s.lower.size(); ++i) s.lower[i] = x[size_t(nu + i)];
+  return s;
+}
+
+DesignSpace design_space(const Case& c, const CstShape& baseline) {
+  const Parameterization& p = c.parameterization;
+  DesignSpace d;
+  d.layout = baseline;
+  auto add = [&](const Eigen::VectorXd& a, double lo, double hi, const char* surface) {
+    for (Eigen::Index i = 0; i < a.size(); ++i) {
+      const double v = a[i];
+      if ((!std::isnan(lo) && v < lo) || (!std::isnan(hi) && v > hi))
+        throw InputError(c.path.string() + ": /parameterization/bounds/" + surface +
+                         ": the baseline's coefficient a_" + std::to_string(i) + " = " + text(v) +
+                         " lies outside [" + text(lo) + ", " + text(hi) + "]");
+      d.start.push_back(v);
+      d.lower.push_back(std::isnan(lo) ? v - p.margin : std::max(lo, v - p.margin));
+      d.upper.push_back(std::isnan(hi) ? v + p.margin : std::min(hi, v + p.margin));
+      if (!(d.lower.back() < d.upper.back()))
+        throw InputError(c.path.string() + ": /parameterization/bounds/" + surface +
+                         ": leaves coefficient a_" + std::to_string(i) + " no room to move");
+    }
+  };
+  add(baseline.upper, p.upper_min, p.upper_max, "upper");
+  add(baseline.lower, p.lower_min, p.lower_max, "lower");
+  return d;
+}
+
+SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator, DesignSpace space)
+    : case_(c), evaluator_(evaluator), space_(std::move(space)) {
+  const Constraints& k = c.constraints;
+  // Scales put one unit of scaled violation at a change a designer would call large.
+  limits_.push_back({"thickness positive everywhere", true, 0.01, 0.1});
+  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_upper) +
+                         " on the upper surface (strength, 1/c)",
+                     false, kFlatCurvature, 0.5});
+  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_lower) +
+                         " on the lower surface (strength, 1/c)",
+                     false, kFlatCurvature, 0.5});
+  if (!std::isnan(k.thickness_min))
+    limits_.push_back({"t/c", true, k.thickness_min, k.thickness_min});
+  for (const auto& s : k.spars) limits_.push_back({"t/c at x = " + text(s.x), true, s.min, s.min});
+  if (!std::isnan(k.te_gap_min))
+    limits_.push_back({"trailing-edge gap", true, k.te_gap_min, 0.005});
+  if (!std::isnan(k.te_gap_max))
+    limits_.push_back({"trailing-edge gap", false, k.te_gap_max, 0.005});
+  if (!std::isnan(k.te_angle_min_deg))
+    limits_.push_back({"trailing-edge wedge angle (deg)", true, k.te_angle_min_deg,
+                       std::max(1.0, k.te_angle_min_deg)});
+  if (!std::isnan(k.le_radius_min))
+    limits_.push_back({"leading-edge radius", true, k.le_radius_min, k.le_radius_min});
+  if (!std::isnan(k.area_min)) limits_.push_back({"area", true, k.area_min, k.area_min});
+  if (!std::isnan(k.thickness_x_min))
+    limits_.push_back({"x of maximum t/c", true, k.thickness_x_min, 0.1});
+  if (!std::isnan(k.thickness_x_max))
+    limits_.push_back({"x of maximum t/c", false, k.thickness_x_max, 0.1});
+  if (!std::isnan(k.cl_max_min))
+    limits_.push_back({"cl_max at landing", true, k.cl_max_min, k.cl_max_min});
+  for (const auto& p : c.points)
+    if (!std::isnan(p.cm_min))
+      for (const auto& s : c.scenarios)
+        limits_.push_back(
+            {"cm at " + scenario_label(p, s, c.scenarios.size()), true, p.cm_min, 0.05});
+  for (const auto& l : limits_)
+    names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + text(l.limit));
+}
+
+Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) const {
+  const Case& c = case_;
+  Evaluation e;
+  e.x = x;
+  const CstShape shape = space_.shape(x);
+  const GeometryMeasures g =
+      measure_geometry(shape, c.constraints.spars, c.constraints.max_reversals_upper,
+                       c.constraints.max_reversals_lower);
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+
+  std::vector<double> values;
+  values.push_back(g.min_shape_gap);
+  values.push_back(g.excess_reversal_upper);
+  values.push_back(g.excess_reversal_lower);
+  const Constraints& k = c.constraints;
+  if (!std::isnan(k.thickness_min)) values.push_back(g.thickness);
+  for (double t : g.spar_thickness) values.push_back(t);
+  if (!std::isnan(k.te_gap_min)) values.push_back(g.te_gap);
+  if (!std::isnan(k.te_gap_max)) values.push_back(g.te_gap);
+  if (!std::isnan(k.te_angle_min_deg)) values.push_back(g.te_angle_deg);
+  if (!std::isnan(k.le_radius_min)) values.push_back(g.le_radius);
+  if (!std::isnan(k.area_min)) values.push_back(g.area);
+  if (!std::isnan(k.thickness_x_min)) values.push_back(g.thickness_x);
+  if (!std::isnan(k.thickness_x_max)) values.push_back(g.thickness_x);
+
+  e.detail["geometry"] = to_json(g);
+  json points = json::array();
+  e.ok = true;
+  e.status = "ok";
+  double objective = kFailedObjective;
+  ClMaxResult clmax;
+  clmax.reason = "not analysed";
+  std::vector<PointResult> results;
+
+  if (g.min_shape_gap <= 0) {
+    // Crossing surfaces: no flow analysis can mean anything.
+    e.ok = false;
+    e.status = "invalid geometry: the surfaces cross (thickness <= 0 somewhere)";
+  } else {
+    AnalysisRequest request;
+    request.panels = panels;
+    for (const auto& p : c.points)
+      for (const auto& s : c.scenarios)
+        request.points.push_back(
+            {p.cl, FlowCondition{p.reynolds, p.mach, s.ncrit, s.trip_upper, s.trip_lower}});
+    if (!std::isnan(k.cl_max_min)) {
+      const TransitionScenario& s = c.scenarios.front();
+      request.cl_max_at =
+          FlowCondition{c.landing.reynolds, c.landing.mach, s.ncrit, s.trip_upper, s.trip_lower};
+    }
+    const SectionAnalysis a = evaluator_.analyse(cst_section(shape, 161, "design"), request);
+    results = a.points;
+    clmax = a.cl_max;
+    if (results.size() != request.points.size()) {
+      e.ok = false;
+      e.status = "analysis failed: the evaluator returned " + std::to_string(results.size()) +
+                 " of " + std::to_string(request.points.size()) + " points";
+      results.resize(request.points.size());
+    }
+    double sum = 0, weights = 0;
+    size_t i = 0;
+    for (const auto& p : c.points)
+      for (const auto& s : c.scenarios) {
+        const PointResult& r = results[i++];
+        if (e.ok && (!r.converged || !std::isfinite(r.cd) || r.cd <= 0)) {
+          e.ok = false;
+          e.status = "analysis failed at " + scenario_label(p, s, c.scenarios.size()) + ": " +
+                     (r.reason.empty() ? std::string("not converged") : r.reason);
+        }
+        sum += p.weight * s.weight * r.cd;
+        weights += p.weight * s.weight;
+      }
+    if (request.cl_max_at && e.ok && (!clmax.found || !std::isfinite(clmax.cl_max))) {
+      e.ok = false;
+      e.status =
+          "cl_max not found: " + (clmax.reason.empty() ? std::string("no peak") : clmax.reason);
+    }
+    if (e.ok) objective = 100.0 * sum / weights;
+  }
+  if (!std::isnan(k.cl_max_min)) values.push_back(clmax.found ? clmax.cl_max : nan);
+  {
+    size_t i = 0;
+    for (const auto& p : c.points)
+      for (size_t s = 0; s < c.scenarios.size(); ++s, ++i)
+        if (!std::isnan(p.cm_min))
+          values.push_back(i < results.size() && results[i].converged ? results[i].cm : nan);
+  }
+  {
+    size_t i = 0;
+    for (const auto& p : c.points)
+      for (const auto& s : c.scenarios) {
+        json pj = i < results.size() ? to_json(results[i]) : json::object();
+        pj["point"] = p.name;
+        pj["scenario"] = s.name;
+        pj["cl_target"] = p.cl;
+        pj["reynolds"] = p.reynolds;
+        pj["mach"] = p.mach;
+        points.push_back(pj);
+        ++i;
+      }
+  }
+  e.detail["points"] = points;
+  e.detail["cl_max"] = to_json(clmax);
+  e.detail["panels"] = panels;
+  e.objective = objective;
+
+  json table = json::array();
+  for (size_t i = 0; i < limits_.size(); ++i) {
+    const Limit& l = limits_[i];
+    const double v = values[i];
+    double scaled = 1.0;  // an unknown value (failed analysis) counts as violated
+    if (std::isfinite(v)) scaled = (l.is_min ? l.limit - v : v - l.limit) / l.scale;
+    e.constraints.push_back(scaled);
+    table.push_back({{"name", l.name},
+                     {"value", std::isfinite(v) ? json(v) : json(nullptr)},
+                     {"limit", l.limit},
+                     {"kind", l.is_min ? "min" : "max"},
+                     {"satisfied", std::isfinite(v) && scaled <= c.optimizer.constraint_tol}});
+  }
+  e.detail["constraints"] = table;
+  return e;
+}
+
+SearchProblem SectionProblem::search_problem() const {
+  SearchProblem p;
+  p.lower = space_.lower;
+  p.upper = space_.upper;
+  p.start = space_.start;
+  p.constraint_names = names_;
+  const int panels = case_.analysis.panels;
+  p.evaluate = [this, panels](const std::vector<double>& x) { return evaluate(x, panels); };
+  return p;
+}
+
+json SectionProblem::constraint_table(const Evaluation& e) {
+  return e.detail.value("constraints", json::array());
+}
+
+}  // namespace fulmar::optimize

@@ -1,0 +1,140 @@
+// The section design problem: geometry measures of CST shapes against NACA Report 460, and a small
+// optimization with the test-only analytic evaluator (optimize/testing/analytic_evaluator.h: not
+// physics) that must improve a deliberately poor baseline and meet its constraints.
+#include "optimize/section_problem.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <cstdlib>
+#include <iostream>
+#include <numbers>
+
+#include "geometry/naca.h"
+#include "optimize/testing/analytic_evaluator.h"
+
+namespace fulmar::optimize {
+namespace {
+
+using nlohmann::json;
+
+Case small_case(const std::string& naca = "0018") {
+  json j = json::parse(R"({
+    "schema_version": 1, "name": "test glider",
+    "design_points": [{"name": "cruise", "cl": 0.5, "reynolds": 3e6}],
+    "landing": {"reynolds": 2e6},
+    "constraints": {"cl_max": {"min": 1.3}, "cm": {"min": -0.08}, "thickness": {"min": 0.12}},
+    "parameterization": {"order_upper": 4, "order_lower": 4, "bounds": {"margin": 0.2}},
+    "optimizer": {"max_evaluations": 600, "seed": 3},
+    "baseline": {"naca": "0018"}
+  })");
+  j["baseline"]["naca"] = naca;
+  return parse_case(j.dump(), "test.json", ".");
+}
+
+TEST(GeometryMeasures, Naca0012AgainstReport460) {
+  const CstShape s = fit_cst(naca_section("0012", 201), 8, 8).shape;
+  const GeometryMeasures g = measure_geometry(s, {{0.3, 0.1}});
+  // NACA Report 460: the four-digit thickness form has its maximum t at x = 0.30. The CST fit
+  // deviates by <= 2e-4 chord (issue 2 acceptance), hence 5e-4 on thickness; the flat top of the
+  // distribution makes its x uncertain to about 0.01.
+  EXPECT_NEAR(g.thickness, 0.12, 5e-4);
+  EXPECT_NEAR(g.thickness_x, 0.30, 0.01);
+  EXPECT_NEAR(g.spar_thickness[0], 0.12, 5e-4);
+  // Area: the Report 460 half-thickness integrated by hand, 2 * 5t (0.2969*2/3 - 0.1260/2 -
+  // 0.3516/3 + 0.2843/4 - 0.1015/5) = 0.68505 t. 0.5 %: fit deviation over the chord.
+  EXPECT_NEAR(g.area, 0.68505 * 0.12, 0.005 * 0.68505 * 0.12);
+  // Leading-edge radius 1.1019 t^2 (Report 460). The CST nose radius a_0^2/2 of an order-8 fit
+  // matches to about 10 % (the NACA nose is not exactly a CST class-0.5 nose).
+  EXPECT_NEAR(g.le_radius, 1.1019 * 0.12 * 0.12, 0.1 * 1.1019 * 0.12 * 0.12);
+  // Trailing-edge wedge: the Report 460 slope at x = 1 is 5t(0.2969/2 - 0.1260 - 2*0.3516 +
+  // 3*0.2843 - 4*0.1015) = -1.16925 t, a wedge of 2 atan(0.14031) = 15.97 deg for t = 0.12. The
+  // fit's end slope is looser than its ordinates: 1.5 deg.
+  EXPECT_NEAR(g.te_angle_deg, 15.97, 1.5);
+  EXPECT_NEAR(g.camber, 0.0, 1e-6);
+  EXPECT_GT(g.min_shape_gap, 0.1);
+  EXPECT_EQ(g.reversals_upper, 0);
+}
+
+TEST(GeometryMeasures, SmoothInTheCoefficients) {
+  // The finite-difference gradients need measures without steps: a tiny coefficient change
+  // moves the maximum thickness by about its linear estimate.
+  CstShape s = fit_cst(naca_section("2412", 201), 5, 5).shape;
+  const double t0 = measure_geometry(s, {}).thickness;
+  s.upper[2] += 1e-6;
+  const double t1 = measure_geometry(s, {}).thickness;
+  s.upper[2] += 1e-6;
+  const double t2 = measure_geometry(s, {}).thickness;
+  EXPECT_GT(t1, t0);
+  EXPECT_NEAR((t2 - t1) / (t1 - t0), 1.0, 0.05);
+}
+
+TEST(SectionProblem, ConstraintTableNamesEveryLimit) {
+  const Case c = small_case();
+  testing::AnalyticEvaluator ev;
+  const BaselineShape b = resolve_baseline(c);
+  EXPECT_LT(b.fit_deviation, 1e-3);
+  const SectionProblem p(c, ev, design_space(c, b.shape));
+  const Evaluation e = p.evaluate(p.space().start, 160);
+  ASSERT_TRUE(e.ok) << e.status;
+  const json table = SectionProblem::constraint_table(e);
+  ASSERT_EQ(table.size(), p.constraint_names().size());
+  std::set<std::string> names;
+  for (const auto& row : table) names.insert(row.at("name").get<std::string>());
+  for (const char* n :
+       {"thickness positive everywhere", "t/c", "cl_max at landing", "cm at cruise"})
+    EXPECT_TRUE(names.count(n)) << n;
+  // The symmetric 18 % baseline has cm 0 and t/c 0.18: both met.
+  for (const auto& row : table) EXPECT_TRUE(row.at("satisfied").get<bool>()) << row.dump();
+}
+
+TEST(SectionProblem, CrossingSurfacesAreAFailureWithoutAnalysis) {
+  const Case c = small_case();
+  testing::AnalyticEvaluator ev;
+  const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
+  std::vector<double> x = p.space().start;
+  for (size_t i = 0; i < x.size() / 2; ++i) x[i] = -0.4;  // upper surface below the lower
+  const Evaluation e = p.evaluate(x, 160);
+  EXPECT_FALSE(e.ok);
+  EXPECT_NE(e.status.find("invalid geometry"), std::string::npos);
+  EXPECT_EQ(e.objective, kFailedObjective);
+  EXPECT_EQ(ev.analyses.load(), 0);
+}
+
+TEST(SectionProblem, AFailedPointNamesItself) {
+  const Case c = small_case();
+  testing::AnalyticEvaluator ev;
+  ev.fail_above_thickness = 0.15;
+  const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
+  const Evaluation e = p.evaluate(p.space().start, 160);
+  EXPECT_FALSE(e.ok);
+  EXPECT_EQ(e.status, "analysis failed at cruise: test: injected failure");
+  EXPECT_TRUE(std::isfinite(e.objective));
+}
+
+TEST(SectionProblem, ImprovesAPoorBaselineAndMeetsItsConstraints) {
+  const Case c = small_case();
+  testing::AnalyticEvaluator ev;
+  const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
+  SearchSettings s;
+  s.options = c.optimizer;
+  s.threads = 2;
+  if (std::getenv("FULMAR_TEST_VERBOSE")) s.progress = &std::cout;
+  const SearchResult r = run_search(p.search_problem(), s);
+  ASSERT_GE(r.best, 0) << r.stop_reason;
+  const Evaluation& best = r.history[size_t(r.best)];
+  const Evaluation& start = r.history.front();
+  // The analytic model's optimum (by hand): t/c at its limit 0.12 and camber at the cm limit
+  // 0.08/4 = 0.02, cd = 0.0035 + 0.0024 + 0.008 (0.5 - 0.24)^2 = 0.00644 against 0.0091 for the
+  // 18 % symmetric baseline: about 29 % less. Demand 20 % (the CST family cannot reach every
+  // thickness-camber combination exactly at order 4).
+  EXPECT_LT(best.objective, 0.8 * start.objective);
+  for (const auto& row : SectionProblem::constraint_table(best))
+    EXPECT_TRUE(row.at("satisfied").get<bool>()) << row.dump();
+  const json g = best.detail.at("geometry");
+  EXPECT_NEAR(g.at("thickness").get<double>(), 0.12, 0.01);
+  RecordProperty("evaluations", int(r.history.size()));
+}
+
+}  // namespace
+}  // namespace fulmar::optimize

@@ -1,0 +1,18 @@
+#pragma once
+// The production SectionEvaluator: the viscous-inviscid analysis of solvers/viscous. Until that
+// solver offers target-cl solves, polars and cl_max, this build has no production evaluator and
+// `fulmar optimize` says so instead of inventing drag numbers.
+#include <memory>
+#include <string>
+
+#include "optimize/section_evaluator.h"
+
+namespace fulmar::optimize {
+
+// The viscous evaluator, or nullptr when this build has none (see viscous_unavailable_reason).
+std::unique_ptr<SectionEvaluator> make_viscous_evaluator();
+
+// Why make_viscous_evaluator() returns nullptr (empty when it does not).
+std::string viscous_unavailable_reason();
+
+}  // namespace fulmar::optimize
