@@ -100,7 +100,9 @@ struct RawPoints {
 
 RawPoints parse_rows(const std::string& text, const std::string& source, bool csv) {
   RawPoints raw;
-  std::istringstream in(text);
+  // A UTF-8 byte-order mark (spreadsheet exports) would otherwise turn the first row into a name.
+  const bool bom = text.rfind("\xEF\xBB\xBF", 0) == 0;
+  std::istringstream in(bom ? text.substr(3) : text);
   std::string line_text;
   int line_no = 0;
   bool first = true;

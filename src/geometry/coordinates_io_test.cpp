@@ -96,8 +96,12 @@ TEST(CoordinatesIo, CsvWithHeader) {
   }
   const CoordinateFile f = parse_coordinates(text, "s.csv", true);
   EXPECT_EQ(f.section.points, s.points);
-  // Also recognised by its header without the .csv name.
+  // Also recognised by its header without the .csv name, and behind a UTF-8 byte-order mark.
   EXPECT_EQ(parse_coordinates(text, "s.txt", false).section.points, s.points);
+  EXPECT_EQ(parse_coordinates("\xEF\xBB\xBF" + text, "s.csv", true).section.points, s.points);
+  const std::string plain = coordinates_text(s);
+  const CoordinateFile bom = parse_coordinates("\xEF\xBB\xBF" + plain, "s.dat", false);
+  EXPECT_EQ(bom.section.name, s.name);
 }
 
 TEST(CoordinatesIo, WritersRoundTrip) {

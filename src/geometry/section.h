@@ -18,4 +18,10 @@ struct Section {
   Points points;     // #points by 2
 };
 
+// Frames in practice: coordinate files are normalised to the frame above on reading (unless they
+// are already on a unit chord); CST sections have their nose exactly at (0, 0) and the trailing
+// edges at x = 1 (a fitted CST's trailing-edge midpoint may sit slightly off y = 0); NACA sections
+// keep the Reports' frame, whose chord is the mean line's, so for a cambered one the point
+// farthest from the trailing edge lies up to ~1e-3 chord from (0, 0) (geometry/naca.h).
+
 }  // namespace fulmar

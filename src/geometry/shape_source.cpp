@@ -25,9 +25,17 @@ std::string to_string(ShapeSource::Kind kind) {
 bool looks_like_naca(const std::string& spec) {
   if (spec.size() < 5) return false;
   std::string head;
-  for (int i = 0; i < 4; ++i)
+  for (int i = 0; i < 4; ++i) {
     head += static_cast<char>(std::tolower(static_cast<unsigned char>(spec[i])));
-  return head == "naca";
+  }
+  if (head != "naca") return false;
+  std::size_t i = 4;
+  while (i < spec.size() && (spec[i] == ' ' || spec[i] == '-' || spec[i] == '_')) ++i;
+  if (i == spec.size()) return false;
+  for (; i < spec.size(); ++i) {
+    if (!std::isdigit(static_cast<unsigned char>(spec[i]))) return false;
+  }
+  return true;
 }
 
 ShapeSource load_shape_source(const std::string& spec) {
@@ -40,8 +48,8 @@ ShapeSource load_shape_source(const std::string& spec) {
   }
   std::error_code ec;
   if (!fs::is_regular_file(spec, ec)) {
-    throw InputError("shape '" + spec + "': no such file, and not a NACA designation (e.g. " +
-                     "naca2412, naca23012)");
+    throw InputError("shape '" + spec + "': no such file, and not a NACA designation ('naca' " +
+                     "and 4 or 5 digits, e.g. naca2412, naca23012)");
   }
   std::ifstream in(spec, std::ios::binary);
   if (!in) throw InputError("shape '" + spec + "': cannot read the file");

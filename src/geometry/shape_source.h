@@ -31,7 +31,8 @@ Section load_shape(const std::string& spec);
 // The CST shape when `spec` is a CST JSON file, so that an optimizer can start from its
 // coefficients exactly; std::nullopt for NACA designations and coordinate files.
 std::optional<CstShape> load_cst_shape(const std::string& spec);
-// True when `spec` has the form of a NACA designation (prefix "naca", any case).
+// True when `spec` has the form of a NACA designation: "naca" (any case), optional ' ', '-' or
+// '_', then digits only. Anything else is taken as a file name.
 bool looks_like_naca(const std::string& spec);
 
 }  // namespace fulmar

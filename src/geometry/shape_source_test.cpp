@@ -31,6 +31,7 @@ TEST(ShapeSource, NacaDesignations) {
   EXPECT_EQ(load_shape("naca23012").points.rows(), 2 * kShapePointsPerSurface - 1);
   EXPECT_FALSE(load_cst_shape("naca0012").has_value());
   EXPECT_THROW(load_shape("naca2x12"), InputError);
+  EXPECT_THROW(load_shape("naca23112"), InputError);  // right form, not a Report 537 mean line
 }
 
 TEST(ShapeSource, CstJsonIsLoadedExactly) {
@@ -53,6 +54,9 @@ TEST(ShapeSource, CoordinateFilesAndErrors) {
   const fs::path p =
       scratch("s.dat", "NACA 0012 copy\n" + coordinates_text(naca_section("0012")).substr(10));
   const ShapeSource s = load_shape_source(p.string());
+  // A file whose name starts with "naca" is still a file.
+  const fs::path named = scratch("naca0012.dat", coordinates_text(naca_section("0012")));
+  EXPECT_EQ(load_shape_source(named.string()).kind, ShapeSource::Kind::kCoordinates);
   EXPECT_EQ(s.kind, ShapeSource::Kind::kCoordinates);
   ASSERT_TRUE(s.normalisation.has_value());
   EXPECT_EQ(s.section.name, "NACA 0012 copy");

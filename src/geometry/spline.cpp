@@ -14,6 +14,11 @@ double SplinePoint::curvature() const {
 
 void SectionSpline::fit(const Points& p) {
   const Eigen::Index n_in = p.rows();
+  for (Eigen::Index i = 0; i < n_in; ++i) {
+    if (!std::isfinite(p(i, 0)) || !std::isfinite(p(i, 1))) {
+      throw InputError("section point " + std::to_string(i) + " is not a finite number");
+    }
+  }
   double total = 0;
   for (Eigen::Index i = 1; i < n_in; ++i) total += (p.row(i) - p.row(i - 1)).norm();
   const double repeat = 1e-12 * total;

@@ -61,6 +61,9 @@ TEST(SectionSpline, DropsRepeatsAndRejectsTooFewPoints) {
   Points q(4, 2);
   q << 0, 0, 1, 1, 1, 1, 2, 0;
   EXPECT_THROW(SectionSpline{q}, InputError);
+  Points r = circle_arc(10, 1.0, 0.0, 3.0);
+  r(4, 1) = std::nan("");
+  EXPECT_THROW(SectionSpline{r}, InputError);
 }
 
 }  // namespace
