@@ -85,7 +85,10 @@ T laminar_dissipation(const T& hk) {
 // ---- Turbulent closures [DG87] ---------------------------------------------------------------
 
 inline constexpr double kTurbulentHkMin = 1.05;
-inline constexpr double kTurbulentReThetaMin = 200.0;  // keeps log10(Re_theta) of the Cf fit > 2
+// Lower bounds of Re_theta in the turbulent fits: H* is fitted for Re_theta >= 200 or so (its H0
+// changes form at 400); the Cf fit needs log10(Re_theta) well above 0 (20 gives 1.3).
+inline constexpr double kTurbulentReThetaMin = 200.0;
+inline constexpr double kFrictionReThetaMin = 20.0;
 
 // H* of a turbulent layer from H_k, Re_theta and Me2 (compressibility factor as in [DG87]).
 template <class T>
@@ -110,7 +113,7 @@ T turbulent_energy_shape(const T& hk_in, const T& re_theta_in, const T& me2) {
 template <class T>
 T turbulent_skin_friction(const T& hk_in, const T& re_theta_in, const T& me2) {
   const T hk = smooth_floor(hk_in, kTurbulentHkMin, 0.02);
-  const T rt = smooth_floor(re_theta_in, kTurbulentReThetaMin, 20.0);
+  const T rt = smooth_floor(re_theta_in, kFrictionReThetaMin, 2.0);
   const T fc = sqrt(1.0 + 0.2 * me2);
   const T lr = log10(rt / fc);
   const T cf =

@@ -1,0 +1,729 @@
+#include "solvers/viscous/viscous_solver.h"
+
+#include <Eigen/LU>
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+#include <sstream>
+
+#include "common/error.h"
+
+namespace fulmar::viscous {
+
+namespace {
+
+constexpr double kDeg = std::numbers::pi / 180.0;
+
+void require(bool ok, const std::string& field, double value, const std::string& rule) {
+  if (ok) return;
+  std::ostringstream msg;
+  msg << "viscous option " << field << " = " << value << ": " << rule;
+  throw InputError(msg.str());
+}
+
+InviscidOptions inviscid_options(const ViscousOptions& o) {
+  InviscidOptions io;
+  io.mach = o.mach;
+  io.wake_length = o.wake_length;
+  return io;
+}
+
+// Trailing-edge base thickness carried in the wake's delta*, fading out behind the trailing edge
+// over 2.5 gap heights (the dead-air region behind a blunt base closes within a few heights;
+// a modelling choice), smoothly (zero slope at both ends).
+double wake_gap(double h, double distance) {
+  if (h <= 0.0) return 0.0;
+  const double t = distance / (2.5 * h);
+  if (t >= 1.0) return 0.0;
+  return h * (1.0 - t) * (1.0 - t) * (1.0 + 2.0 * t);
+}
+
+// Everything about one solve that depends on the angle and the stagnation node.
+struct Layout {
+  int n_surface = 0, n_wake = 0, n = 0;  // stations
+  int stag = 0;                          // upper-side first node; lower-side first is stag + 1
+  Eigen::VectorXd sign;                  // +1 upper and wake, -1 lower
+  Eigen::VectorXd ue_inviscid;           // boundary-layer sense (> 0 downstream)
+  Eigen::MatrixXd d;                     // D in boundary-layer sense: sign_i sign_j D_ij
+  Eigen::VectorXd s;                     // arc length: surface from node 0, wake from TE
+  Eigen::VectorXd gap;                   // wake base thickness per station (0 on the surface)
+  Eigen::VectorXd x;                     // x/c of the surface nodes
+};
+
+// The node k with q_k > 0 >= q_{k+1} (speed changes sign) nearest to the leading-edge node.
+int stagnation_node(const Eigen::VectorXd& q, int n_surface, int le) {
+  int best = -1;
+  for (int k = 0; k + 1 < n_surface; ++k) {
+    if (q(k) > 0.0 && q(k + 1) <= 0.0) {
+      if (best < 0 || std::abs(k - le) < std::abs(best - le)) best = k;
+    }
+  }
+  return best < 0 ? le : best;
+}
+
+}  // namespace
+
+void ViscousOptions::Validate() const {
+  require(reynolds >= 1e4 && reynolds <= 1e9, "reynolds", reynolds, "must be in [1e4, 1e9]");
+  require(mach >= 0.0 && mach <= 0.7, "mach", mach, "must be in [0, 0.7]");
+  require(n_crit >= 0.5 && n_crit <= 20.0, "n_crit", n_crit, "must be in [0.5, 20]");
+  require(trip_upper >= 0.0 && trip_upper <= 1.0, "trip_upper", trip_upper,
+          "must be an x/c in [0, 1]");
+  require(trip_lower >= 0.0 && trip_lower <= 1.0, "trip_lower", trip_lower,
+          "must be an x/c in [0, 1]");
+  require(max_iterations >= 1 && max_iterations <= 500, "max_iterations", max_iterations,
+          "must be in [1, 500]");
+  require(tolerance >= 1e-14 && tolerance <= 1e-3, "tolerance", tolerance,
+          "must be in [1e-14, 1e-3]");
+  require(wake_length >= 1.0 && wake_length <= 10.0, "wake_length", wake_length,
+          "must be in [1, 10] chords");
+}
+
+std::string to_string(SolveStatus status) {
+  switch (status) {
+    case SolveStatus::kConverged: return "converged";
+    case SolveStatus::kNotConverged: return "not_converged";
+    case SolveStatus::kFailed: return "failed";
+  }
+  return "failed";
+}
+
+SolveStatus solve_status_from_string(const std::string& text) {
+  for (SolveStatus s : {SolveStatus::kConverged, SolveStatus::kNotConverged, SolveStatus::kFailed})
+    if (to_string(s) == text) return s;
+  throw InputError("solve status \"" + text +
+                   "\": must be one of converged, not_converged, failed");
+}
+
+nlohmann::json ViscousResult::to_json() const {
+  nlohmann::json j;
+  j["alpha"] = alpha;
+  j["cl"] = cl;
+  j["cd"] = cd;
+  j["cm"] = cm;
+  j["cd_friction"] = cd_friction;
+  j["cd_pressure"] = cd_pressure;
+  j["transition_upper"] = transition_upper;
+  j["transition_lower"] = transition_lower;
+  j["converged"] = converged;
+  j["status"] = to_string(status);
+  j["reason"] = reason;
+  j["residual"] = residual;
+  j["iterations"] = iterations;
+  j["residual_history"] = residual_history;
+  return j;
+}
+
+ViscousSolver::ViscousSolver(const Points& nodes, const ViscousOptions& options)
+    : inviscid_((options.Validate(), nodes), inviscid_options(options)), options_(options) {
+  flow_.reynolds = options.reynolds;
+  flow_.mach = options.mach;
+  flow_.n_crit = options.n_crit;
+}
+
+namespace {
+
+// The Newton system and state of one solve.
+class CoupledSystem {
+ public:
+  CoupledSystem(const InviscidSolver& inviscid, const CouplingModel& model,
+                const ViscousOptions& options, const FlowConditions& flow)
+      : inv_(inviscid), model_(model), opt_(options), flow_(flow) {
+    lay_.n_surface = model.surface_nodes;
+    lay_.n_wake = model.wake_nodes;
+    lay_.n = lay_.n_surface + lay_.n_wake;
+    lay_.s = model.arc_length;
+    const Points& nodes = inviscid.nodes();
+    lay_.x = nodes.col(0);
+    const double xmin = lay_.x.minCoeff();
+    lay_.x = (lay_.x.array() - xmin) / inviscid.chord();
+    le_ = 0;
+    lay_.x.minCoeff(&le_);
+    lay_.gap = Eigen::VectorXd::Zero(lay_.n);
+    te_gap_ = inviscid.te_gap() * inviscid.chord();
+    for (int j = 0; j < lay_.n_wake; ++j)
+      lay_.gap(lay_.n_surface + j) = wake_gap(te_gap_, lay_.s(lay_.n_surface + j));
+    const int n3 = 3 * lay_.n;
+    jac_.resize(n3, n3);
+    res_.resize(n3);
+    c_.resize(lay_.n);
+    th_.resize(lay_.n);
+    mu_.resize(lay_.n);
+    ue_.resize(lay_.n);
+    kinds_.assign(static_cast<std::size_t>(lay_.n), LayerKind::kLaminar);
+  }
+
+  const Layout& layout() const { return lay_; }
+
+  // Sets the stagnation node and the signs that go with it.
+  void set_stagnation(int stag) {
+    lay_.stag = stag;
+    lay_.sign = Eigen::VectorXd::Ones(lay_.n);
+    for (int i = stag + 1; i < lay_.n_surface; ++i) lay_.sign(i) = -1.0;
+    lay_.ue_inviscid = lay_.sign.cwiseProduct(model_.edge_velocity);
+    lay_.d = lay_.sign.asDiagonal() * model_.mass_influence * lay_.sign.asDiagonal();
+  }
+
+  // Cold start: march both surfaces and the wake on the inviscid edge velocity.
+  void cold_start() {
+    set_stagnation(stagnation_node(model_.edge_velocity, lay_.n_surface, le_));
+    for (int side = 0; side < 2; ++side) {
+      const std::vector<int> idx = side_nodes(side);
+      const int m = static_cast<int>(idx.size());
+      Eigen::VectorXd x(m), ue(m);
+      const double xi0 = first_xi(side);
+      for (int p = 0; p < m; ++p) {
+        x(p) = xi0 + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
+        // The first station may sit on the stagnation point (ue ~ xi ~ 0): keep the ratio.
+        ue(p) = std::max(lay_.ue_inviscid(idx[p]), p == 0 ? 1e-10 : 1e-3);
+      }
+      const double trip = trip_arc(side, idx, x);
+      const MarchResult mr = march_surface(x, ue, 1.0, trip, flow_, true);
+      for (int p = 0; p < m; ++p) {
+        const int i = idx[p];
+        const StationState& st = mr.stations[p];
+        c_(i) = st.c;
+        th_(i) = st.theta;
+        mu_(i) = st.ue * st.dstar;
+        kinds_[i] = mr.kinds[p];
+      }
+    }
+    // Wake from the merged trailing-edge state.
+    const StationState merged = merged_state();
+    Eigen::VectorXd x(lay_.n_wake), ue(lay_.n_wake), gap(lay_.n_wake);
+    for (int j = 0; j < lay_.n_wake; ++j) {
+      const int i = lay_.n_surface + j;
+      x(j) = lay_.s(i);
+      ue(j) = std::max(lay_.ue_inviscid(i), 0.05);
+      gap(j) = lay_.gap(i);
+    }
+    StationState first = merged;
+    first.ue = ue(0);
+    const MarchResult mw = march_wake(first, x, ue, gap, flow_);
+    for (int j = 0; j < lay_.n_wake; ++j) {
+      const int i = lay_.n_surface + j;
+      c_(i) = mw.stations[j].c;
+      th_(i) = mw.stations[j].theta;
+      mu_(i) = mw.stations[j].ue * mw.stations[j].dstar;
+      kinds_[i] = LayerKind::kWake;
+    }
+  }
+
+  bool warm_start(const ViscousState& st) {
+    if (static_cast<int>(st.stations.size()) != lay_.n || st.stagnation_node < 0 ||
+        st.stagnation_node + 1 >= lay_.n_surface)
+      return false;
+    set_stagnation(st.stagnation_node);
+    for (int i = 0; i < lay_.n; ++i) {
+      const StationState& s = st.stations[i];
+      c_(i) = s.c;
+      th_(i) = s.theta;
+      mu_(i) = s.ue * s.dstar;
+      kinds_[i] = st.kinds[i];
+    }
+    return true;
+  }
+
+  // Edge velocities from the current mass defects.
+  void update_edge_velocity() { ue_ = lay_.ue_inviscid + lay_.d * mu_; }
+
+  // Moves the stagnation node when a first station's speed has turned; returns true if moved.
+  bool relocate_stagnation() {
+    const int k = lay_.stag;
+    int nk = k;
+    if (ue_(k) <= 1e-9 * std::abs(ue_(k + 1)) && k > 0) nk = k - 1;
+    else if (ue_(k + 1) <= 1e-9 * std::abs(ue_(k)) && k + 2 < lay_.n_surface) nk = k + 1;
+    if (nk == k) return false;
+    const int moved = nk < k ? k : k + 1;  // the node that changes side
+    const double dstar = std::max(mu_(moved) / std::max(std::abs(ue_(moved)), 1e-9), 1e-9);
+    set_stagnation(nk);
+    update_edge_velocity();
+    const double u = std::max(ue_(moved), 1e-6);
+    mu_(moved) = u * std::min(dstar, 2.2 * th_(moved) * 2.0);
+    c_(moved) = 0.0;
+    kinds_[moved] = LayerKind::kLaminar;
+    update_edge_velocity();
+    return true;
+  }
+
+  // Stations of one side in boundary-layer order (side 0 upper, 1 lower).
+  std::vector<int> side_nodes(int side) const {
+    std::vector<int> idx;
+    if (side == 0) {
+      for (int i = lay_.stag; i >= 0; --i) idx.push_back(i);
+    } else {
+      for (int i = lay_.stag + 1; i < lay_.n_surface; ++i) idx.push_back(i);
+    }
+    return idx;
+  }
+
+  // Arc length from the stagnation point to the first station of a side (from the current or
+  // inviscid speeds), and its derivatives with respect to ue at the two nodes around it.
+  double first_xi(int side, double* d_uk = nullptr, double* d_uk1 = nullptr) const {
+    const int k = lay_.stag;
+    const double ds = std::abs(lay_.s(k + 1) - lay_.s(k));
+    const Eigen::VectorXd& u = ue_valid_ ? ue_ : lay_.ue_inviscid;
+    const double a = std::max(u(k), 1e-10), b = std::max(u(k + 1), 1e-10), sum = a + b;
+    const double frac = (side == 0 ? a : b) / sum;
+    if (d_uk) *d_uk = (side == 0 ? b : -b) / (sum * sum) * ds;
+    if (d_uk1) *d_uk1 = (side == 0 ? -a : a) / (sum * sum) * ds;
+    return frac * ds;
+  }
+
+  // Arc length along the side (same origin as the stations' x) of the forced transition point.
+  double trip_arc(int side, const std::vector<int>& idx, const Eigen::VectorXd& x) const {
+    const double xt = side == 0 ? opt_.trip_upper : opt_.trip_lower;
+    if (xt >= 1.0) return 1e9;
+    for (std::size_t p = 1; p < idx.size(); ++p) {
+      const double xa = lay_.x(idx[p - 1]), xb = lay_.x(idx[p]);
+      if (xb > xt && xb > xa) {
+        const double w = std::clamp((xt - xa) / (xb - xa), 0.0, 1.0);
+        return x(static_cast<Eigen::Index>(p - 1)) + w * (x(p) - x(p - 1));
+      }
+    }
+    return 1e9;
+  }
+
+  // Trip fraction of the interval between BL positions p-1 and p of a side.
+  double trip_fraction(int side, int i1, int i2) const {
+    const double xt = side == 0 ? opt_.trip_upper : opt_.trip_lower;
+    if (xt >= 1.0) return 2.0;
+    const double xa = lay_.x(i1), xb = lay_.x(i2);
+    if (xb <= xt) return 2.0;
+    if (xa >= xt) return 0.0;
+    return (xt - xa) / (xb - xa);
+  }
+
+  StationState station(int i) const {
+    StationState s;
+    s.c = c_(i);
+    s.theta = th_(i);
+    s.ue = ue_(i);
+    s.dstar = mu_(i) / ue_(i);
+    return s;
+  }
+
+  StationState merged_state() const {
+    const int u = 0, l = lay_.n_surface - 1;
+    StationState a = station_guess(u), b = station_guess(l);
+    StationState w;
+    w.theta = a.theta + b.theta;
+    w.dstar = a.dstar + b.dstar + te_gap_;
+    w.c = (turbulent_c(u, a) * a.theta + turbulent_c(l, b) * b.theta) / w.theta;
+    w.ue = 0.5 * (a.ue + b.ue);
+    return w;
+  }
+
+  // Station with ue from the current solution if set, else inviscid.
+  StationState station_guess(int i) const {
+    StationState s;
+    s.c = c_(i);
+    s.theta = th_(i);
+    s.ue = ue_valid_ ? ue_(i) : std::max(lay_.ue_inviscid(i), 1e-3);
+    s.dstar = mu_(i) / s.ue;
+    return s;
+  }
+
+  // sqrt(Ctau) a trailing-edge station hands to the wake (a laminar one as if it had just
+  // become turbulent).
+  double turbulent_c(int i, const StationState& s) const {
+    if (kinds_[i] != LayerKind::kLaminar) return s.c;
+    const Closure<double> k =
+        close_station(LayerKind::kTurbulent, 0.0, s.theta, s.dstar, s.ue, flow_);
+    return transition_ctau_root(k);
+  }
+
+  // Decides laminar/turbulent per station from the current state (amplification, trips).
+  void assign_transition() {
+    for (int side = 0; side < 2; ++side) {
+      const std::vector<int> idx = side_nodes(side);
+      bool turbulent = false;
+      transition_interval_[side] = -1;
+      for (std::size_t p = 1; p < idx.size(); ++p) {
+        const int i1 = idx[p - 1], i2 = idx[p];
+        if (!turbulent) {
+          const double trip = trip_fraction(side, i1, i2);
+          const StationState s1 = station(i1);
+          const double x1 = xi_of(side, idx, static_cast<int>(p - 1));
+          const double x2 = xi_of(side, idx, static_cast<int>(p));
+          const std::array<double, 4> a{s1.c, s1.theta, s1.dstar, s1.ue};
+          const double w = transition_fraction(x1, x2, a.data(), flow_);
+          if (w <= 1.0 || trip <= 1.0) {
+            turbulent = true;
+            transition_interval_[side] = static_cast<int>(p);
+            if (kinds_[i2] == LayerKind::kLaminar) {
+              const StationState s2 = station(i2);
+              const Closure<double> k = close_station(LayerKind::kTurbulent, 0.0, s2.theta,
+                                                      s2.dstar, s2.ue, flow_);
+              c_(i2) = transition_ctau_root(k);
+            }
+            kinds_[i2] = LayerKind::kTurbulent;
+            continue;
+          }
+          if (kinds_[i2] != LayerKind::kLaminar) {
+            // Back to laminar: N from the explicit amplification rule.
+            const Closure<double> k = close_station(LayerKind::kLaminar, s1.c, s1.theta,
+                                                    s1.dstar, s1.ue, flow_);
+            c_(i2) = s1.c + (x2 - x1) * amplification_rate(k.hk, s1.theta, k.re_theta);
+          }
+          kinds_[i2] = LayerKind::kLaminar;
+        } else {
+          kinds_[i2] = LayerKind::kTurbulent;
+        }
+      }
+      kinds_[idx[0]] = LayerKind::kLaminar;
+    }
+  }
+
+  double xi_of(int side, const std::vector<int>& idx, int p) const {
+    return first_xi(side) + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
+  }
+
+  // Adds dR/d(c, theta, delta*, ue) of station i to row r of the Jacobian (chain rule through
+  // delta* = m / ue and ue = ue_inv + D m).
+  void add_row(int r, int i, double dc, double dth, double dds, double due) {
+    const int n = lay_.n;
+    jac_(r, i) += dc;
+    jac_(r, n + i) += dth;
+    const double u = ue_(i);
+    jac_(r, 2 * n + i) += dds / u;
+    const double coef = due - dds * mu_(i) / (u * u);
+    if (coef != 0.0) jac_.row(r).segment(2 * n, n) += coef * lay_.d.row(i);
+  }
+
+  // Residuals and Jacobian at the current state; returns max |residual|.
+  double assemble() {
+    jac_.setZero();
+    res_.setZero();
+    const int n = lay_.n;
+    for (int side = 0; side < 2; ++side) {
+      const std::vector<int> idx = side_nodes(side);
+      // First station: similarity.
+      {
+        const int i = idx[0];
+        double d_uk = 0.0, d_uk1 = 0.0;
+        IntervalSpec spec;
+        spec.type = IntervalType::kSimilarity;
+        spec.x2 = first_xi(side, &d_uk, &d_uk1);
+        const IntervalLinearization lin = linearize_interval(spec, station(i), station(i), flow_);
+        for (int e = 0; e < 3; ++e) {
+          const int r = 3 * i + e;
+          res_(r) = lin.r(e);
+          add_row(r, i, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
+          // Through the stagnation point's position.
+          const double dx = lin.j(e, 0);
+          if (ue_(lay_.stag) > 1e-10 && ue_(lay_.stag + 1) > 1e-10) {
+            add_row(r, lay_.stag, 0.0, 0.0, 0.0, dx * d_uk);
+            add_row(r, lay_.stag + 1, 0.0, 0.0, 0.0, dx * d_uk1);
+          }
+        }
+      }
+      for (std::size_t p = 1; p < idx.size(); ++p) {
+        const int i1 = idx[p - 1], i2 = idx[p];
+        IntervalSpec spec;
+        spec.x1 = xi_of(side, idx, static_cast<int>(p - 1));
+        spec.x2 = xi_of(side, idx, static_cast<int>(p));
+        if (static_cast<int>(p) == transition_interval_[side]) {
+          spec.type = IntervalType::kTransition;
+          spec.trip_fraction = trip_fraction(side, i1, i2);
+        } else {
+          spec.type = kinds_[i2] == LayerKind::kLaminar ? IntervalType::kLaminar
+                                                        : IntervalType::kTurbulent;
+        }
+        double w = -1.0;
+        // The first interval's arc lengths move with the stagnation point (log form in xi).
+        Eigen::Vector3d d_origin = Eigen::Vector3d::Zero();
+        const bool first = p == 1 && ue_(lay_.stag) > 1e-10 && ue_(lay_.stag + 1) > 1e-10;
+        const IntervalLinearization lin = linearize_interval(
+            spec, station(i1), station(i2), flow_, &w, first ? &d_origin : nullptr);
+        if (spec.type == IntervalType::kTransition) transition_weight_[side] = w;
+        double d_uk = 0.0, d_uk1 = 0.0;
+        if (first) first_xi(side, &d_uk, &d_uk1);
+        for (int e = 0; e < 3; ++e) {
+          const int r = 3 * i2 + e;
+          res_(r) = lin.r(e);
+          add_row(r, i1, lin.j(e, 0), lin.j(e, 1), lin.j(e, 2), lin.j(e, 3));
+          add_row(r, i2, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
+          if (first) {
+            add_row(r, lay_.stag, 0.0, 0.0, 0.0, d_origin(e) * d_uk);
+            add_row(r, lay_.stag + 1, 0.0, 0.0, 0.0, d_origin(e) * d_uk1);
+          }
+        }
+      }
+    }
+    // Wake: merge at the trailing edge, then wake intervals.
+    {
+      const int w0 = lay_.n_surface, u = 0, l = lay_.n_surface - 1;
+      const StationState a = station(u), b = station(l), w = station(w0);
+      const double tsum = a.theta + b.theta;
+      const double cu = turbulent_c(u, a), cl = turbulent_c(l, b);
+      const bool lam_u = kinds_[u] == LayerKind::kLaminar, lam_l = kinds_[l] == LayerKind::kLaminar;
+      // c_w - (cu tu + cl tl) / (tu + tl)   (a laminar side's cu is held fixed)
+      const double cm = (cu * a.theta + cl * b.theta) / tsum;
+      int r = 3 * w0;
+      res_(r) = w.c - cm;
+      add_row(r, w0, 1.0, 0.0, 0.0, 0.0);
+      add_row(r, u, lam_u ? 0.0 : -a.theta / tsum, -(cu - cm) / tsum, 0.0, 0.0);
+      add_row(r, l, lam_l ? 0.0 : -b.theta / tsum, -(cl - cm) / tsum, 0.0, 0.0);
+      r = 3 * w0 + 1;
+      res_(r) = (w.theta - tsum) / tsum;
+      add_row(r, w0, 0.0, 1.0 / tsum, 0.0, 0.0);
+      add_row(r, u, 0.0, -1.0 / tsum, 0.0, 0.0);
+      add_row(r, l, 0.0, -1.0 / tsum, 0.0, 0.0);
+      r = 3 * w0 + 2;
+      const double dscale = a.dstar + b.dstar + te_gap_;
+      res_(r) = (w.dstar - dscale) / dscale;
+      add_row(r, w0, 0.0, 0.0, 1.0 / dscale, 0.0);
+      add_row(r, u, 0.0, 0.0, -1.0 / dscale, 0.0);
+      add_row(r, l, 0.0, 0.0, -1.0 / dscale, 0.0);
+    }
+    for (int j = 1; j < lay_.n_wake; ++j) {
+      const int i1 = lay_.n_surface + j - 1, i2 = i1 + 1;
+      IntervalSpec spec;
+      spec.type = IntervalType::kWake;
+      spec.x1 = lay_.s(i1);
+      spec.x2 = lay_.s(i2);
+      spec.gap1 = lay_.gap(i1);
+      spec.gap2 = lay_.gap(i2);
+      const IntervalLinearization lin = linearize_interval(spec, station(i1), station(i2), flow_);
+      for (int e = 0; e < 3; ++e) {
+        const int r = 3 * i2 + e;
+        res_(r) = lin.r(e);
+        add_row(r, i1, lin.j(e, 0), lin.j(e, 1), lin.j(e, 2), lin.j(e, 3));
+        add_row(r, i2, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
+      }
+    }
+    (void)n;
+    return res_.allFinite() ? res_.cwiseAbs().maxCoeff() : INFINITY;
+  }
+
+  // One limited Newton step; returns the relaxation factor used (0 if the solve failed).
+  double newton_step() {
+    lu_.compute(jac_);
+    step_ = lu_.solve(-res_);
+    if (!step_.allFinite()) return 0.0;
+    const int n = lay_.n;
+    double rlx = 1.0;
+    auto limit = [&rlx](double change, double allowed) {
+      if (std::abs(change) * rlx > allowed) rlx = allowed / std::abs(change);
+    };
+    for (int i = 0; i < n; ++i) {
+      limit(step_(n + i), 0.5 * th_(i));
+      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 1e-12);
+      if (kinds_[i] == LayerKind::kLaminar) limit(step_(i), 2.0);
+      else limit(step_(i), 0.5 * c_(i));
+    }
+    // Keep every H above the closures' floor (see boundary_layer.cpp): scale the step down.
+    const Eigen::VectorXd dmu = step_.segment(2 * n, n);
+    const Eigen::VectorXd due = lay_.d * dmu;
+    for (int k = 0; k < 20; ++k) {
+      bool ok = true;
+      for (int i = 0; i < n && ok; ++i) {
+        const double u = ue_(i) + rlx * due(i);
+        if (i == lay_.stag || i == lay_.stag + 1) continue;
+        if (u <= 0.0) { ok = false; break; }
+        const double h = ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
+        const double h0 = station(i).dstar / th_(i);
+        if (h < 0.5 * (std::min(h0, 1.05) + 1.0)) ok = false;
+      }
+      if (ok) break;
+      rlx *= 0.5;
+    }
+    c_ += rlx * step_.segment(0, n);
+    th_ += rlx * step_.segment(n, n);
+    mu_ += rlx * dmu;
+    for (int i = 0; i < n; ++i) {
+      th_(i) = std::max(th_(i), 1e-9);
+      if (kinds_[i] != LayerKind::kLaminar) c_(i) = std::max(c_(i), 1e-5);
+    }
+    update_edge_velocity();
+    return rlx;
+  }
+
+  void mark_ue_valid() { ue_valid_ = true; }
+  const Eigen::VectorXd& ue() const { return ue_; }
+  const Eigen::VectorXd& c() const { return c_; }
+  const Eigen::VectorXd& theta() const { return th_; }
+  const Eigen::VectorXd& mu() const { return mu_; }
+  const std::vector<LayerKind>& kinds() const { return kinds_; }
+  int transition_interval(int side) const { return transition_interval_[side]; }
+  double transition_weight(int side) const { return transition_weight_[side]; }
+  const FlowConditions& flow() const { return flow_; }
+
+ private:
+  const InviscidSolver& inv_;
+  const CouplingModel& model_;
+  const ViscousOptions& opt_;
+  FlowConditions flow_;
+  Layout lay_;
+  int le_ = 0;
+  double te_gap_ = 0.0;
+  Eigen::MatrixXd jac_;
+  Eigen::VectorXd res_, step_;
+  Eigen::PartialPivLU<Eigen::MatrixXd> lu_;
+  Eigen::VectorXd c_, th_, mu_, ue_;
+  std::vector<LayerKind> kinds_;
+  bool ue_valid_ = false;
+  int transition_interval_[2] = {-1, -1};
+  double transition_weight_[2] = {1.0, 1.0};
+};
+
+}  // namespace
+
+ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* warm_start) const {
+  ViscousResult res;
+  res.alpha = alpha_deg;
+  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > 60.0) {
+    res.status = SolveStatus::kFailed;
+    res.reason = "angle of attack must be finite and within +-60 deg";
+    return res;
+  }
+  const double alpha = alpha_deg * kDeg;
+  const CouplingModel model = inviscid_.coupling_model(alpha);
+  CoupledSystem sys(inviscid_, model, options_, flow_);
+  bool warm = warm_start && warm_start->valid() && sys.warm_start(*warm_start);
+  if (!warm) sys.cold_start();
+  sys.update_edge_velocity();
+  sys.mark_ue_valid();
+  double r = INFINITY;
+  bool done = false;
+  int it = 0;
+  for (; it < options_.max_iterations; ++it) {
+    sys.relocate_stagnation();
+    sys.assign_transition();
+    r = sys.assemble();
+    res.residual_history.push_back(r);
+    if (!std::isfinite(r)) break;
+    if (r < options_.tolerance && it > 0) {
+      done = true;
+      break;
+    }
+    const double rlx = sys.newton_step();
+    if (rlx <= 0.0) {
+      r = INFINITY;
+      break;
+    }
+  }
+  res.iterations = it;
+  res.residual = r;
+  std::ostringstream msg;
+  if (done) {
+    res.converged = true;
+    res.status = SolveStatus::kConverged;
+    msg << "converged: max residual " << r << " < tolerance " << options_.tolerance << " after "
+        << it << " Newton iterations";
+  } else if (std::isfinite(r)) {
+    res.status = SolveStatus::kNotConverged;
+    msg << "not converged: max residual " << r << " >= tolerance " << options_.tolerance
+        << " after " << it << " Newton iterations";
+  } else {
+    res.status = SolveStatus::kFailed;
+    msg << "failed: the Newton system became singular or non-finite after " << it
+        << " iterations";
+  }
+  res.reason = msg.str();
+
+  // Outputs from the final state.
+  const Layout& lay = sys.layout();
+  const int ns = lay.n_surface, nw = lay.n_wake;
+  const Eigen::VectorXd& ue = sys.ue();
+  Eigen::VectorXd q = lay.sign.head(ns).cwiseProduct(ue.head(ns));
+  res.ue = q;
+  res.theta = sys.theta().head(ns);
+  res.dstar.resize(ns);
+  res.shape.resize(ns);
+  res.cf.resize(ns);
+  res.amplification = sys.c().head(ns);
+  for (int i = 0; i < ns; ++i) {
+    const StationState s = sys.station(i);
+    res.dstar(i) = s.dstar;
+    res.shape(i) = s.dstar / s.theta;
+    res.cf(i) = skin_friction(sys.kinds()[i], s, flow_);
+  }
+  res.wake_theta = sys.theta().tail(nw);
+  res.wake_ue = ue.tail(nw);
+  res.wake_dstar = sys.mu().tail(nw).cwiseQuotient(ue.tail(nw));
+  InviscidResult loads;
+  inviscid_.loads_from_speed(alpha, q, loads);
+  res.cl = loads.cl;
+  res.cm = loads.cm;
+  res.cp = loads.cp;
+  // Squire-Young at the wake end.
+  const int last = lay.n - 1;
+  const StationState se = sys.station(last);
+  const double h_end = (se.dstar - lay.gap(last)) / se.theta;
+  res.cd = 2.0 * se.theta * std::pow(std::max(se.ue, 1e-6), 0.5 * (h_end + 5.0));
+  // Friction drag: wall shear along the local flow direction, projected on the free stream.
+  const Points& nodes = inviscid_.nodes();
+  const Eigen::Vector2d e(std::cos(alpha), std::sin(alpha));
+  double cdf = 0.0;
+  for (int side = 0; side < 2; ++side) {
+    const std::vector<int> idx = sys.side_nodes(side);
+    for (std::size_t p = 1; p < idx.size(); ++p) {
+      const int i1 = idx[p - 1], i2 = idx[p];
+      const Eigen::Vector2d t = (nodes.row(i2) - nodes.row(i1)).transpose();
+      cdf += 0.5 * (res.cf(i1) + res.cf(i2)) * t.dot(e);
+    }
+  }
+  res.cd_friction = cdf / inviscid_.chord();
+  res.cd_pressure = res.cd - res.cd_friction;
+  // Transition points as x/c.
+  for (int side = 0; side < 2; ++side) {
+    const int p = sys.transition_interval(side);
+    double xt = 1.0;
+    if (p > 0) {
+      const std::vector<int> idx = sys.side_nodes(side);
+      const double w = sys.transition_weight(side);
+      xt = lay.x(idx[p - 1]) + w * (lay.x(idx[p]) - lay.x(idx[p - 1]));
+    }
+    (side == 0 ? res.transition_upper : res.transition_lower) = xt;
+  }
+  // State for warm starts.
+  res.state.stagnation_node = lay.stag;
+  res.state.stations.resize(static_cast<std::size_t>(lay.n));
+  res.state.kinds = sys.kinds();
+  for (int i = 0; i < lay.n; ++i) res.state.stations[i] = sys.station(i);
+  // Never a NaN in the outputs.
+  const double scalars[] = {res.cl, res.cd, res.cm, res.cd_friction, res.cd_pressure};
+  bool finite = true;
+  for (double v : scalars) finite = finite && std::isfinite(v);
+  if (!finite) {
+    res.converged = false;
+    res.status = SolveStatus::kFailed;
+    res.reason += "; non-finite loads, outputs zeroed";
+    res.cl = res.cd = res.cm = res.cd_friction = res.cd_pressure = 0.0;
+    res.state = ViscousState{};
+  }
+  if (!res.converged) res.state = ViscousState{};
+  return res;
+}
+
+ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm_start) const {
+  // Secant iteration on alpha from the inviscid angle (viscous lift is somewhat lower).
+  InviscidResult inv;
+  inviscid_.solve_for_cl(cl_target, inv);
+  double a0 = inv.converged ? inv.alpha / kDeg : 0.0;
+  ViscousResult r0 = solve_alpha(a0, warm_start);
+  if (!r0.converged) return r0;
+  double a1 = a0 + 0.5;
+  ViscousResult r1 = solve_alpha(a1, &r0.state);
+  for (int k = 0; k < 20; ++k) {
+    if (!r1.converged) return r1;
+    if (std::abs(r1.cl - cl_target) < 1e-5) return r1;
+    const double slope = (r1.cl - r0.cl) / (a1 - a0);
+    if (!(std::abs(slope) > 1e-4)) break;
+    const double a2 = a1 + std::clamp((cl_target - r1.cl) / slope, -2.0, 2.0);
+    r0 = std::move(r1);
+    a0 = a1;
+    a1 = a2;
+    r1 = solve_alpha(a1, &r0.state);
+  }
+  r1.converged = false;
+  r1.status = SolveStatus::kNotConverged;
+  std::ostringstream msg;
+  msg << "target cl " << cl_target << " not reached: cl " << r1.cl << " at alpha " << r1.alpha;
+  r1.reason = msg.str();
+  return r1;
+}
+
+}  // namespace fulmar::viscous

@@ -1,0 +1,98 @@
+#pragma once
+// Viscous-inviscid analysis of a wing section: integral boundary layers on both surfaces and the
+// wake, strongly coupled to the panel method through its mass-defect influence matrix and solved
+// by one global Newton method on all boundary-layer equations (M. Drela and M. B. Giles, AIAA J.
+// 25(10), 1347-1355, 1987). Edge velocity: ue = ue_inviscid + D m with m = ue delta*.
+//
+// Unknowns per station (surface node or wake node): c (N laminar, sqrt(Ctau) turbulent), theta,
+// m. The stagnation point lies between the two nodes where the surface speed changes sign, at
+// the linearly interpolated zero; it moves with the solution (its influence on the first
+// stations' arc length is in the Jacobian; it may hop a node between iterations).
+//
+// Drag: Squire-Young (ARC R&M 1838, 1938) at the wake end, cd = 2 theta (ue)^((H + 5)/2);
+// friction drag from the wall shear; pressure drag = cd - cd_friction. cl and cm from the viscous
+// surface speed (Karman-Tsien for M > 0 on the loads; the boundary layer itself is
+// incompressible apart from the Mach terms in its closures).
+#include <Eigen/Core>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "geometry/section.h"
+#include "solvers/inviscid/panel_solver.h"
+#include "solvers/viscous/boundary_layer.h"
+
+namespace fulmar::viscous {
+
+struct ViscousOptions {
+  double reynolds = 1.0e6;  // chord Reynolds number, 1e4 .. 1e9
+  double mach = 0.0;        // free-stream Mach number, 0 .. 0.7
+  double n_crit = kDefaultNCrit;  // critical amplification factor, 0.5 .. 20
+  double trip_upper = 1.0;  // forced transition x/c on the upper surface, 0 .. 1 (1: free)
+  double trip_lower = 1.0;  // forced transition x/c on the lower surface, 0 .. 1 (1: free)
+  int max_iterations = 30;  // Newton iterations, 1 .. 500
+  // Stopping rule: converged when the largest absolute residual of all boundary-layer equations
+  // (each a dimensionless increment of ln theta, ln H*, ln c or N over one interval) is below
+  // `tolerance` after a full (unrelaxed) Newton step; 1e-14 .. 1e-3.
+  double tolerance = 1.0e-9;
+  double wake_length = 1.0;  // chords of wake behind the trailing edge, >= 1
+  // Throws InputError naming the field, its value and the rule it breaks.
+  void Validate() const;
+};
+
+enum class SolveStatus { kConverged, kNotConverged, kFailed };
+std::string to_string(SolveStatus status);        // "converged", "not_converged", "failed"
+SolveStatus solve_status_from_string(const std::string& text);  // throws InputError
+
+// The boundary-layer state of a solution, to warm-start a neighbouring one (same shape).
+struct ViscousState {
+  int stagnation_node = -1;             // upper-side first node (the flow turns between it and +1)
+  std::vector<StationState> stations;   // #nodes surface stations then the wake stations
+  std::vector<LayerKind> kinds;
+  bool valid() const { return stagnation_node >= 0 && !stations.empty(); }
+};
+
+struct ViscousResult {
+  bool converged = false;
+  SolveStatus status = SolveStatus::kFailed;
+  std::string reason;        // what happened, with the measured residual against the tolerance
+  double residual = 0.0;     // final max |residual|
+  int iterations = 0;
+  std::vector<double> residual_history;  // max |residual| before each Newton step
+  double alpha = 0.0;        // deg
+  double cl = 0.0, cd = 0.0, cd_friction = 0.0, cd_pressure = 0.0, cm = 0.0;
+  double transition_upper = 1.0, transition_lower = 1.0;  // x/c (1: laminar to the TE)
+  // Per surface node (#nodes, node order): clockwise-positive speed q as in the inviscid solver,
+  // Cp, momentum and displacement thickness, H, skin friction (on free-stream q), N or sqrt(Ctau).
+  Eigen::VectorXd ue, cp, theta, dstar, shape, cf, amplification;
+  Eigen::VectorXd wake_theta, wake_dstar, wake_ue;  // per wake node
+  ViscousState state;
+
+  nlohmann::json to_json() const;  // scalars and residual history (no per-node vectors)
+};
+
+class ViscousSolver {
+ public:
+  // `nodes`: #nodes by 2 panel nodes (see solvers/inviscid/panel_solver.h: upper TE first,
+  // counter-clockwise, chord-normalised). Throws InputError for bad nodes or options.
+  ViscousSolver(const Points& nodes, const ViscousOptions& options);
+
+  // Solution at `alpha_deg` (degrees). `warm_start`: a state of this shape (e.g. the previous
+  // angle's result.state) or null for a cold start from a boundary-layer march on the inviscid
+  // flow. Never throws for flow reasons: non-convergence is in the result.
+  ViscousResult solve_alpha(double alpha_deg, const ViscousState* warm_start = nullptr) const;
+
+  // Solution at lift coefficient `cl` (secant iteration on alpha, warm-started, to
+  // |cl - target| < 1e-5); converged false with a reason when it cannot be reached.
+  ViscousResult solve_cl(double cl, const ViscousState* warm_start = nullptr) const;
+
+  const InviscidSolver& inviscid() const { return inviscid_; }
+  const ViscousOptions& options() const { return options_; }
+
+ private:
+  InviscidSolver inviscid_;
+  ViscousOptions options_;
+  FlowConditions flow_;
+};
+
+}  // namespace fulmar::viscous
