@@ -32,6 +32,7 @@ class Reader {
     throw InputError(*label_ + ": " + (path.empty() ? "/" : path) + ": " + rule);
   }
   const std::string& path() const { return path_; }
+  std::string where() const { return *label_ + ": " + path_; }
   const json& node() const { return *node_; }
 
   void expect_object() const {
@@ -353,7 +354,7 @@ Baseline read_baseline(Reader r, const std::filesystem::path& base_dir) {
 OptimizerOptions read_optimizer(Reader r) {
   OptimizerOptions o;
   if (auto c = r.optional_child("algorithm"))
-    o.algorithm = algorithm_from_string(c->string(), c->path());
+    o.algorithm = algorithm_from_string(c->string(), c->where());
   if (auto c = r.optional_child("max_evaluations")) {
     o.max_evaluations = c->integer();
     if (o.max_evaluations < 1)

@@ -1,0 +1,226 @@
+// `fulmar optimize` end to end: every case-file rule gives exit code 2, a message with the file,
+// the JSON path and the rule, and nothing written; the example cases are valid.
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <functional>
+#include <nlohmann/json.hpp>
+
+#include "cli_run.h"
+
+namespace fulmar::testing {
+namespace {
+
+namespace fs = std::filesystem;
+using nlohmann::json;
+
+json demo() {
+  std::ifstream in(source_dir() / "cases" / "demo.json");
+  return json::parse(in);
+}
+
+struct BadCase {
+  std::string name;
+  std::function<void(json&)> spoil;
+  std::string path;  // expected JSON pointer in the message
+  std::string rule;  // expected words of the rule
+};
+
+void PrintTo(const BadCase& b, std::ostream* os) {
+  *os << b.name;
+}
+
+class BadCaseFile : public ::testing::TestWithParam<BadCase> {};
+
+TEST_P(BadCaseFile, ExitTwoWithPathAndRuleAndNothingWritten) {
+  const BadCase& b = GetParam();
+  const fs::path dir = fresh_directory("optimize_bad");
+  json j = demo();
+  b.spoil(j);
+  {
+    std::ofstream out(dir / "bad.json");
+    out << j.dump(2);
+  }
+  const fs::path out_dir = dir / "out";
+  const CliResult r = run_fulmar({"optimize", (dir / "bad.json").string(), "-o", out_dir.string()});
+  EXPECT_EQ(r.exit_code, 2) << r.err;
+  EXPECT_NE(r.err.find("bad.json: " + b.path + ": "), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find(b.rule), std::string::npos) << r.err;
+  EXPECT_FALSE(fs::exists(out_dir));
+  int entries = 0;
+  for ([[maybe_unused]] const auto& e : fs::directory_iterator(dir)) ++entries;
+  EXPECT_EQ(entries, 1) << "something besides the case file was written";
+  fs::remove_all(dir);
+}
+
+const std::vector<BadCase> kBadCases = {
+    {"UnknownKey", [](json& j) { j["colour"] = "red"; }, "/colour", "unknown key"},
+    {"UnknownNestedKey",
+     [](json& j) {
+       j["constraints"]["thicknes"] = {{"min", 0.1}};
+     },
+     "/constraints/thicknes", "unknown key"},
+    {"WrongType", [](json& j) { j["airplane"]["mass"] = "heavy"; }, "/airplane/mass",
+     "must be a number"},
+    {"MissingField", [](json& j) { j["airplane"].erase("chord"); }, "/airplane/chord",
+     "missing required field"},
+    {"NegativeMass", [](json& j) { j["airplane"]["mass"] = -750; }, "/airplane/mass",
+     "must be > 0"},
+    {"ClMaxBelowCruiseCl",
+     [](json& j) {
+       j["constraints"]["cl_max"] = {{"min", 0.3}};
+     },
+     "/constraints/cl_max/min", "must be >= the cruise cl"},
+    {"ClMaxBelowStallRequirement",
+     [](json& j) {
+       j["constraints"]["cl_max"] = {{"min", 1.2}};
+     },
+     "/constraints/cl_max/min", "the cl_max the stall speed requires"},
+    {"OrderZero", [](json& j) { j["parameterization"]["order_upper"] = 0; },
+     "/parameterization/order_upper", "must be in 2..12"},
+    {"SchemaVersion", [](json& j) { j["schema_version"] = 2; }, "/schema_version",
+     "unsupported schema version"},
+    {"UnknownAlgorithm", [](json& j) { j["optimizer"]["algorithm"] = "annealing"; },
+     "/optimizer/algorithm", "unknown algorithm"},
+    {"NonPositiveWeight", [](json& j) { j["design_points"][0]["weight"] = 0; },
+     "/design_points/0/weight", "must be > 0"},
+    {"MachTooHigh",
+     [](json& j) {
+       j["design_points"][1] = {{"cl", 0.5}, {"reynolds", 3e6}, {"mach", 0.8}};
+     },
+     "/design_points/1/mach", "must be in [0, 0.7)"},
+    {"FlightAndDirectMixed", [](json& j) { j["design_points"][0]["cl"] = 0.4; }, "/design_points/0",
+     "not both"},
+    {"FlightPointWithoutAirplane", [](json& j) { j.erase("airplane"); }, "/design_points/0/speed",
+     "needs the airplane"},
+    {"AltitudeOutsideAtmosphere", [](json& j) { j["design_points"][0]["altitude"] = -100; },
+     "/design_points/0/altitude", "must be in [0, 20000]"},
+    {"StallTooSlow", [](json& j) { j["landing"]["stall_speed"] = 18; }, "/landing/stall_speed",
+     "beyond what a clean section reaches"},
+    {"NoDesignPoints", [](json& j) { j["design_points"] = json::array(); }, "/design_points",
+     "at least one design point"},
+    {"TripOutsideChord", [](json& j) { j["transition"]["trip_upper"] = 1.5; },
+     "/transition/trip_upper", "must be in (0, 1]"},
+    {"NcritZero", [](json& j) { j["transition"]["ncrit"] = 0; }, "/transition/ncrit",
+     "must be in (0, 20]"},
+    {"ScenarioWeight",
+     [](json& j) {
+       j["transition"]["scenarios"] = {{{"name", "a"}, {"weight", -1}}};
+     },
+     "/transition/scenarios/0/weight", "must be > 0"},
+    {"CmLimitType", [](json& j) { j["constraints"]["cm"]["min"] = true; }, "/constraints/cm/min",
+     "must be a number"},
+    {"SparOutsideChord", [](json& j) { j["constraints"]["spar"][0]["x"] = 1.2; },
+     "/constraints/spar/0/x", "must be in (0, 1)"},
+    {"SparDeeperThanSection", [](json& j) { j["constraints"]["spar"][0]["min"] = 0.16; },
+     "/constraints/spar/0/min", "must be <= the maximum-thickness limit"},
+    {"ThicknessNotPositive", [](json& j) { j["constraints"]["thickness"]["min"] = 0; },
+     "/constraints/thickness/min", "must be in (0, 0.5]"},
+    {"TeAngleNegative", [](json& j) { j["constraints"]["te_angle_deg"]["min"] = -2; },
+     "/constraints/te_angle_deg/min", "must be in [0, 60]"},
+    {"LeRadiusZero", [](json& j) { j["constraints"]["le_radius"]["min"] = 0; },
+     "/constraints/le_radius/min", "must be in (0, 0.1]"},
+    {"AreaTooLarge", [](json& j) { j["constraints"]["area"]["min"] = 0.9; },
+     "/constraints/area/min", "must be in (0, 0.4]"},
+    {"ThicknessXReversed",
+     [](json& j) {
+       j["constraints"]["thickness_x"] = {{"min", 0.4}, {"max", 0.3}};
+     },
+     "/constraints/thickness_x/max", "must be >= min"},
+    {"TeGapOutsideLimit", [](json& j) { j["parameterization"]["te_gap"] = 0.01; },
+     "/parameterization/te_gap", "must be <= the te_gap limit"},
+    {"ReversalsNegative",
+     [](json& j) {
+       j["constraints"]["curvature_reversals"] = {{"upper_max", -1}};
+     },
+     "/constraints/curvature_reversals/upper_max", "must be in 0..4"},
+    {"MarginZero", [](json& j) { j["parameterization"]["bounds"]["margin"] = 0; },
+     "/parameterization/bounds/margin", "must be in (0, 1]"},
+    {"BaselineOutsideBounds",
+     [](json& j) {
+       j["parameterization"]["bounds"]["upper"] = {{"min", 0.5}};
+     },
+     "/parameterization/bounds/upper", "lies outside"},
+    {"BadNaca", [](json& j) { j["baseline"]["naca"] = "24x2"; }, "/baseline/naca", "NACA"},
+    {"MissingBaselineFile",
+     [](json& j) {
+       j["baseline"] = {{"file", "nowhere.dat"}};
+     },
+     "/baseline/file", "no such file"},
+    {"TwoBaselines", [](json& j) { j["baseline"]["file"] = "x.dat"; }, "/baseline",
+     "exactly one of naca, file or cst"},
+    {"BadCst",
+     [](json& j) {
+       j["baseline"] = {{"cst", {{"kind", "something"}}}};
+     },
+     "/baseline/cst", ""},
+    {"BudgetZero", [](json& j) { j["optimizer"]["max_evaluations"] = 0; },
+     "/optimizer/max_evaluations", "must be >= 1"},
+    {"SeedFractional", [](json& j) { j["optimizer"]["seed"] = 1.5; }, "/optimizer/seed",
+     "must be an integer"},
+    {"TimeLimitNegative", [](json& j) { j["optimizer"]["time_limit_s"] = -5; },
+     "/optimizer/time_limit_s", "must be > 0"},
+    {"VerifyCoarserThanSearch", [](json& j) { j["analysis"]["verify_panels"] = 100; }, "/analysis",
+     "verify_panels"},
+    {"TooFewOutputPoints", [](json& j) { j["outputs"]["points"] = 5; }, "/outputs/points",
+     "must be in 21..2001"},
+};
+
+INSTANTIATE_TEST_SUITE_P(CliOptimize, BadCaseFile, ::testing::ValuesIn(kBadCases),
+                         [](const auto& info) { return info.param.name; });
+
+TEST(CliOptimize, NotJsonNamesTheLine) {
+  const fs::path dir = fresh_directory("optimize_notjson");
+  {
+    std::ofstream out(dir / "broken.json");
+    out << "{\n  \"schema_version\": 1,\n  \"name\": \"x\"\n  \"airplane\": {}\n}\n";
+  }
+  const CliResult r =
+      run_fulmar({"optimize", (dir / "broken.json").string(), "-o", (dir / "out").string()});
+  EXPECT_EQ(r.exit_code, 2);
+  EXPECT_NE(r.err.find("broken.json: line 4: not valid JSON"), std::string::npos) << r.err;
+  EXPECT_FALSE(fs::exists(dir / "out"));
+  fs::remove_all(dir);
+}
+
+TEST(CliOptimize, ExampleCasesAreValid) {
+  for (const char* name : {"demo.json", "endurance_uav.json", "motor_glider.json"}) {
+    const CliResult r =
+        run_fulmar({"optimize", (source_dir() / "cases" / name).string(), "--check"});
+    EXPECT_EQ(r.exit_code, 0) << name << ": " << r.err;
+    EXPECT_NE(r.out.find(": valid"), std::string::npos) << r.out;
+  }
+}
+
+TEST(CliOptimize, DemoCheckShowsTheLiftEquationResult) {
+  const CliResult r =
+      run_fulmar({"optimize", (source_dir() / "cases" / "demo.json").string(), "--check"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  // The demo's cruise cl 0.340 (stated in its description): 2 m g / (rho V^2 S) with the ISA
+  // density at 2000 m, 1.0066 kg/m^3 (ISO 2533 table).
+  EXPECT_NE(r.out.find("cl 0.339"), std::string::npos) << r.out;
+}
+
+TEST(CliOptimize, WithoutTheViscousAnalysisItSaysSoAndWritesNothing) {
+  const fs::path dir = fresh_directory("optimize_noviscous");
+  const CliResult r = run_fulmar(
+      {"optimize", (source_dir() / "cases" / "demo.json").string(), "-o", (dir / "out").string()});
+  if (r.exit_code == 2) {
+    EXPECT_NE(r.err.find("viscous-inviscid analysis is not available"), std::string::npos) << r.err;
+    EXPECT_FALSE(fs::exists(dir / "out"));
+  } else {
+    GTEST_SKIP() << "this build has the viscous analysis";
+  }
+  fs::remove_all(dir);
+}
+
+TEST(CliOptimize, HelpCarriesTheCaution) {
+  const CliResult r = run_fulmar({"optimize", "--help"});
+  EXPECT_EQ(r.exit_code, 0);
+  EXPECT_NE(r.out.find("Confirm every result by test"), std::string::npos);
+  EXPECT_NE(r.out.find("--resume"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace fulmar::testing
