@@ -100,6 +100,9 @@ TEST(CliShape, CoordinateFileNormalisedAndEitherOrder) {
   EXPECT_NEAR(a["normalisation"]["chord"].get<double>(), 200.0, 1e-4);
   EXPECT_NEAR(a["normalisation"]["rotation_deg"].get<double>(), 3.0, 1e-5);
   EXPECT_FALSE(b["normalisation"]["applied"].get<bool>());
+  // Symmetric: rounding-level camber is reported as none.
+  EXPECT_EQ(a["camber"].get<double>(), 0.0);
+  EXPECT_EQ(a["camber_x"].get<double>(), 0.0);
   for (const char* key : {"thickness", "le_radius", "te_gap", "area"}) {
     EXPECT_NEAR(a[key].get<double>(), b[key].get<double>(), 1e-5) << key;
   }

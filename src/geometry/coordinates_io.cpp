@@ -227,10 +227,11 @@ CoordinateFile parse_coordinates(const std::string& text, const std::string& sou
   if (!(chord_est > 0) || gap > 0.1 * chord_est) {
     throw at_line(line.front(),
                   "no trailing edge: the first point (line " + std::to_string(line.front()) +
-                      ") and the last (line " + std::to_string(line.back()) + ") are " +
-                      fmt(gap / std::max(chord_est, 1e-300)) +
-                      " chord apart; a section file runs from the trailing edge over one surface "
-                      "to the leading edge and back (gap at most 0.1 chord)");
+                      ") and the last (line " + std::to_string(line.back()) + ") are " + fmt(gap) +
+                      " apart (file units), " + fmt(100 * gap / std::max(chord_est, 1e-300)) +
+                      " % of the distance from their midpoint to the farthest point; a section "
+                      "file runs from the trailing edge over one surface to the leading edge and "
+                      "back, so they must be within 10 %");
   }
   for (int i = 0; i < n; ++i) {
     if ((p[i] - p[nose]).norm() > 1.02 * chord_est) {

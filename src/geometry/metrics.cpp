@@ -202,6 +202,9 @@ double SectionSurfaces::lower_y(double x) const {
   return surface_y(false, x);
 }
 
+// Camber below this (chord fractions) is reported as none: the resolution of coordinate files.
+constexpr double kFlatCamber = 1e-6;
+
 SectionMetrics section_metrics(const Section& section) {
   const SectionSurfaces surf(section);
   const SectionSpline& sp = surf.spline();
@@ -212,7 +215,7 @@ SectionMetrics section_metrics(const Section& section) {
   // Camber of largest magnitude, with its sign.
   const auto [cxp, cp] = maximum_over(0.0, 1.0, 300, [&](double x) { return surf.camber_at(x); });
   const auto [cxn, cn] = maximum_over(0.0, 1.0, 300, [&](double x) { return -surf.camber_at(x); });
-  if (std::max(cp, cn) > 1e-10) {
+  if (std::max(cp, cn) > kFlatCamber) {
     if (cp >= cn)
       m.camber = cp, m.camber_x = cxp;
     else

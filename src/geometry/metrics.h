@@ -19,7 +19,8 @@ namespace fulmar {
 struct SectionMetrics {
   double thickness = 0;     // maximum of thickness(x) over [0, 1]
   double thickness_x = 0;   // its x
-  double camber = 0;        // camber(x) of largest magnitude (signed) over [0, 1]; 0 if symmetric
+  double camber = 0;        // camber(x) of largest magnitude (signed) over [0, 1]; 0 when
+                            // below 1e-6 (symmetric, up to the resolution of coordinate files)
   double camber_x = 0;      // its x (0 for a symmetric section)
   double le_radius = 0;     // radius of curvature at the leading edge (inverse of the mean
                             // of the two surfaces' nose curvatures from local fits through
