@@ -109,7 +109,7 @@ void add_optimize_command(CLI::App& app) {
       ->check(CLI::ExistingFile);
   cmd->add_option(
       "-o,--output", args->output_dir,
-      "Output directory (created if missing; default: CASE-result beside the working directory)");
+      "Output directory (created if missing; default: CASE-result in the working directory)");
   cmd->add_flag("--resume", args->resume,
                 "Continue an interrupted run from DIR/checkpoint.json (same case file)");
   cmd->add_flag("--check", args->check,
