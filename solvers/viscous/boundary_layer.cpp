@@ -50,8 +50,8 @@ IntervalLinearization linearize_interval(const IntervalSpec& spec, const Station
   const std::array<Dual, 4> a = inputs(s1, 0), b = inputs(s2, 4);
   const bool similarity = spec.type == IntervalType::kSimilarity;
   const std::array<Dual, 3> r =
-      residuals_of(spec, Dual(spec.x1), similarity ? Dual::input(spec.x2, 0) : Dual(spec.x2), a,
-                   b, flow, fraction_out);
+      residuals_of(spec, Dual(spec.x1), similarity ? Dual::input(spec.x2, 0) : Dual(spec.x2), a, b,
+                   flow, fraction_out);
   IntervalLinearization lin;
   for (int i = 0; i < 3; ++i) {
     lin.r(i) = r[i].v;
@@ -60,8 +60,8 @@ IntervalLinearization linearize_interval(const IntervalSpec& spec, const Station
   if (d_origin) {
     const std::array<Dual, 4> ac{Dual(s1.c), Dual(s1.theta), Dual(s1.dstar), Dual(s1.ue)};
     const std::array<Dual, 4> bc{Dual(s2.c), Dual(s2.theta), Dual(s2.dstar), Dual(s2.ue)};
-    const std::array<Dual, 3> ro = residuals_of(spec, Dual::input(spec.x1, 0),
-                                                Dual::input(spec.x2, 0), ac, bc, flow, nullptr);
+    const std::array<Dual, 3> ro =
+        residuals_of(spec, Dual::input(spec.x1, 0), Dual::input(spec.x2, 0), ac, bc, flow, nullptr);
     for (int i = 0; i < 3; ++i) (*d_origin)(i) = ro[i].d[0];
   }
   return lin;

@@ -220,10 +220,11 @@ struct IntervalSpec {
 };
 
 // Linearization of one interval. For kSimilarity station 2 is the station, and column 0 holds
-// the derivative with respect to its arc length x2 (station 1 is not used). For kTransition, `fraction_out` receives the fraction of
-// the interval where transition happens (natural or forced, whichever is first).
-// `d_origin`, when given, receives the derivatives of the residuals with respect to a shift of
-// the arc-length origin (x1 and x2 moving together), as when the stagnation point moves.
+// the derivative with respect to its arc length x2 (station 1 is not used). For kTransition,
+// `fraction_out` receives the fraction of the interval where transition happens (natural or forced,
+// whichever is first). `d_origin`, when given, receives the derivatives of the residuals with
+// respect to a shift of the arc-length origin (x1 and x2 moving together), as when the stagnation
+// point moves.
 IntervalLinearization linearize_interval(const IntervalSpec& spec, const StationState& s1,
                                          const StationState& s2, const FlowConditions& flow,
                                          double* fraction_out = nullptr,

@@ -22,7 +22,34 @@ double component(const StationState& s, int k) {
 void expect_exact_jacobian(const IntervalSpec& spec, const StationState& a, const StationState& b,
                            const FlowConditions& flow) {
   const IntervalLinearization lin = linearize_interval(spec, a, b, flow);
-  for (int k = 0; k < 8; ++k) {
+  const bool similarity = spec.type == IntervalType::kSimilarity;
+  if (similarity) {
+    // Column 0 is the derivative with respect to the station's arc length x2.
+    IntervalSpec sp = spec, sm = spec;
+    const double h = 1e-6 * spec.x2;
+    sp.x2 += h;
+    sm.x2 -= h;
+    const Eigen::Vector3d fd =
+        (linearize_interval(sp, a, b, flow).r - linearize_interval(sm, a, b, flow).r) / (2.0 * h);
+    for (int i = 0; i < 3; ++i)
+      EXPECT_NEAR(lin.j(i, 0), fd(i), 1e-5 * std::max(1.0, std::abs(fd(i)))) << "d/dx2 eq " << i;
+  }
+  // The derivative with respect to a shift of the arc-length origin (x1, x2 together).
+  if (!similarity) {
+    Eigen::Vector3d d_origin;
+    linearize_interval(spec, a, b, flow, nullptr, &d_origin);
+    IntervalSpec sp = spec, sm = spec;
+    const double h = 1e-6 * spec.x1;
+    sp.x1 += h;
+    sp.x2 += h;
+    sm.x1 -= h;
+    sm.x2 -= h;
+    const Eigen::Vector3d fd =
+        (linearize_interval(sp, a, b, flow).r - linearize_interval(sm, a, b, flow).r) / (2.0 * h);
+    for (int i = 0; i < 3; ++i)
+      EXPECT_NEAR(d_origin(i), fd(i), 1e-5 * std::max(1.0, std::abs(fd(i)))) << "origin eq " << i;
+  }
+  for (int k = similarity ? 4 : 0; k < 8; ++k) {
     const bool second = k >= 4;
     const double base = component(second ? b : a, k % 4);
     const double h = 1e-6 * std::max(std::abs(base), 1e-4);
