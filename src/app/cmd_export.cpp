@@ -1,9 +1,9 @@
 // `fulmar export`: a section to CAD (DXF, IGES, STEP) or to points (CSV) and a drawing (SVG).
-#include <array>
 #include <iostream>
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 #include "app/cli_checks.h"
 #include "app/commands.h"
@@ -20,7 +20,7 @@ struct ExportArgs {
   std::string units = "mm";
   double twist = 0.0;
   double pivot = 0.25;
-  std::array<double, 3> offset{0.0, 0.0, 0.0};
+  std::vector<double> offset{0.0, 0.0, 0.0};  // X Y Z
   double tolerance = 1e-5;
   int degree = 3;
   bool polyline = false;

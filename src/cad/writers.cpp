@@ -417,9 +417,11 @@ std::string iges_text(const CadDrawing& d) {
   std::string out;
   // Start section: human-readable description.
   std::ostringstream desc;
-  desc << "fulmar wing section " << ascii(d.name) << ", chord " << format_real(d.placement.chord)
-       << " " << to_string(d.placement.units) << ", twist " << format_real(d.placement.twist_deg)
-       << " deg about x/c " << format_real(d.placement.pivot) << ".";
+  desc << "fulmar wing section " << ascii(d.name) << ", chord " << d.placement.chord << " "
+       << to_string(d.placement.units) << ", twist " << d.placement.twist_deg
+       << " deg (nose up +) about x/c " << d.placement.pivot
+       << ", in the plane z = " << d.placement.offset.z() << " " << to_string(d.placement.units)
+       << ".";
   std::vector<std::string> start_lines;
   {
     const std::string text = desc.str();
