@@ -2,6 +2,7 @@
 
 #include <unistd.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <map>
@@ -253,8 +254,8 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
   }
   identity.erase("outputs");
   identity["evaluator"] = evaluator.description();
+  if (options.start_shape) identity["start"] = cst_to_json(*options.start_shape, "start");
 
-  fs::create_directories(dir);
   SearchSettings settings;
   settings.options = c.optimizer;
   settings.checkpoint = dir / kCheckpointFile;
@@ -270,7 +271,23 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
                       << ", budget " << c.optimizer.max_evaluations << " analyses"
                       << (options.resume ? ", resuming" : "") << "\n"
                       << std::flush;
-  const SearchResult r = run_search(problem.search_problem(), settings);
+  SearchProblem search = problem.search_problem();
+  if (options.start_shape) {
+    const CstShape& st = *options.start_shape;
+    if (st.upper.size() != space.layout.upper.size() ||
+        st.lower.size() != space.layout.lower.size())
+      throw InputError("start design: its CST orders " + std::to_string(st.upper.size() - 1) + "/" +
+                       std::to_string(st.lower.size() - 1) + " differ from the case's " +
+                       std::to_string(c.parameterization.order_upper) + "/" +
+                       std::to_string(c.parameterization.order_lower));
+    for (Eigen::Index i = 0; i < st.upper.size(); ++i) search.start[size_t(i)] = st.upper[i];
+    for (Eigen::Index i = 0; i < st.lower.size(); ++i)
+      search.start[size_t(st.upper.size() + i)] = st.lower[i];
+    for (size_t i = 0; i < search.start.size(); ++i)
+      search.start[i] = std::clamp(search.start[i], search.lower[i], search.upper[i]);
+  }
+  fs::create_directories(dir);
+  const SearchResult r = run_search(search, settings);
   const double tol = c.optimizer.constraint_tol;
 
   // Re-verification: fresh analyses with finer panels of the baseline and the chosen design.

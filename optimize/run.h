@@ -5,10 +5,12 @@
 #include <atomic>
 #include <filesystem>
 #include <iosfwd>
+#include <optional>
 #include <string>
 
 #include <nlohmann/json.hpp>
 
+#include "geometry/cst.h"
 #include "optimize/case_file.h"
 #include "optimize/section_evaluator.h"
 
@@ -21,6 +23,10 @@ struct RunOptions {
   const std::atomic<bool>* stop = nullptr;  // a signal handler sets it: stop, write the best
   int threads = 0;                          // finite-difference threads; 0: all cores
   std::string caution;                      // printed in the report
+  // Where the search starts, when not at the baseline (e.g. the neighbour's optimum in a trade
+  // study). Same orders as the case's parameterization; clamped into the bounds, which stay
+  // those around the baseline. The baseline remains the reference of the comparison.
+  std::optional<CstShape> start_shape;
 };
 
 struct RunOutcome {

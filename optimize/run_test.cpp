@@ -11,6 +11,7 @@
 
 #include "common/error.h"
 #include "geometry/cst.h"
+#include "geometry/naca.h"
 #include "optimize/testing/analytic_evaluator.h"
 
 namespace fulmar::optimize {
@@ -158,6 +159,31 @@ TEST(Run, ResumeWithoutCheckpointWritesNothing) {
   EXPECT_THROW(run_optimization(small_case(), ev, o), InputError);
   EXPECT_FALSE(fs::exists(dir));
   EXPECT_EQ(ev.analyses.load(), 0);
+}
+
+TEST(Run, StartsWhereToldAndKeepsTheBaselineAsReference) {
+  const fs::path dir = scratch("start"), dir2 = scratch("start_bad");
+  testing::AnalyticEvaluator ev;
+  const Case c = small_case();
+  CstShape start = fit_cst(naca_section("2414", 201), 3, 3).shape;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  o.start_shape = start;
+  const RunOutcome out = run_optimization(c, ev, o);
+  const std::string history = slurp(dir / "history.csv");
+  const std::string first_row = history.substr(history.find('\n') + 1);
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.17g", start.upper[0]);
+  EXPECT_NE(first_row.substr(0, first_row.find('\n')).find(buf), std::string::npos)
+      << first_row.substr(0, 200);
+  EXPECT_EQ(out.summary["baseline"]["name"], "NACA 0018");
+  CstShape wrong = fit_cst(naca_section("2414", 201), 5, 5).shape;
+  o.output_dir = dir2;
+  o.start_shape = wrong;
+  EXPECT_THROW(run_optimization(c, ev, o), InputError);
+  EXPECT_FALSE(fs::exists(dir2));
+  fs::remove_all(dir);
 }
 
 TEST(Run, MissingParentDirectoryIsAnInputError) {
