@@ -349,13 +349,14 @@ std::string trade_svg(const StudyDefinition& study, const std::vector<PointRecor
           s.x.push_back(r->point.values[0]), s.y.push_back(double(k + 1));
     strip.series.push_back(s);
   }
-  if (active_keys.empty()) {
-    Series axis;  // keeps the swept range on the x axis
-    axis.line = false;
-    for (const auto* r : sorted)
-      axis.x.push_back(r->point.values[0]), axis.y.push_back(std::nan(""));
-    strip.series.push_back(axis);
+  // An undrawn frame: the swept range on the x axis and half a row of room above and below.
+  Series frame;
+  frame.line = false;
+  for (const auto* r : sorted) {
+    frame.x.push_back(r->point.values[0]), frame.y.push_back(0.5);
+    frame.x.push_back(r->point.values[0]), frame.y.push_back(double(active_keys.size()) + 0.5);
   }
+  strip.series.push_back(frame);
   return optimize::svg_document({cd, strip});
 }
 
