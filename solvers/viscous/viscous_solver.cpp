@@ -81,9 +81,12 @@ void ViscousOptions::Validate() const {
 
 std::string to_string(SolveStatus status) {
   switch (status) {
-    case SolveStatus::kConverged: return "converged";
-    case SolveStatus::kNotConverged: return "not_converged";
-    case SolveStatus::kFailed: return "failed";
+    case SolveStatus::kConverged:
+      return "converged";
+    case SolveStatus::kNotConverged:
+      return "not_converged";
+    case SolveStatus::kFailed:
+      return "failed";
   }
   return "failed";
 }
@@ -231,8 +234,10 @@ class CoupledSystem {
   bool relocate_stagnation() {
     const int k = lay_.stag;
     int nk = k;
-    if (ue_(k) <= 1e-9 * std::abs(ue_(k + 1)) && k > 0) nk = k - 1;
-    else if (ue_(k + 1) <= 1e-9 * std::abs(ue_(k)) && k + 2 < lay_.n_surface) nk = k + 1;
+    if (ue_(k) <= 1e-9 * std::abs(ue_(k + 1)) && k > 0)
+      nk = k - 1;
+    else if (ue_(k + 1) <= 1e-9 * std::abs(ue_(k)) && k + 2 < lay_.n_surface)
+      nk = k + 1;
     if (nk == k) return false;
     const int moved = nk < k ? k : k + 1;  // the node that changes side
     const double dstar = std::max(mu_(moved) / std::max(std::abs(ue_(moved)), 1e-9), 1e-9);
@@ -294,12 +299,18 @@ class CoupledSystem {
     return (xt - xa) / (xb - xa);
   }
 
+  // The speed that converts m into delta* = m / ue: bounded below, because at a node on the
+  // stagnation point ue ~ 0 is set by tiny mass-defect effects and m / ue would be meaningless
+  // there (m -> 0 with ue; the similarity equations then fix delta* through m / kMinDstarSpeed).
+  static constexpr double kMinDstarSpeed = 1e-4;
+  double dstar_speed(int i) const { return std::max(ue_(i), kMinDstarSpeed); }
+
   StationState station(int i) const {
     StationState s;
     s.c = c_(i);
     s.theta = th_(i);
     s.ue = ue_(i);
-    s.dstar = mu_(i) / ue_(i);
+    s.dstar = mu_(i) / dstar_speed(i);
     return s;
   }
 
@@ -353,8 +364,8 @@ class CoupledSystem {
             transition_interval_[side] = static_cast<int>(p);
             if (kinds_[i2] == LayerKind::kLaminar) {
               const StationState s2 = station(i2);
-              const Closure<double> k = close_station(LayerKind::kTurbulent, 0.0, s2.theta,
-                                                      s2.dstar, s2.ue, flow_);
+              const Closure<double> k =
+                  close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow_);
               c_(i2) = transition_ctau_root(k);
             }
             kinds_[i2] = LayerKind::kTurbulent;
@@ -362,8 +373,8 @@ class CoupledSystem {
           }
           if (kinds_[i2] != LayerKind::kLaminar) {
             // Back to laminar: N from the explicit amplification rule.
-            const Closure<double> k = close_station(LayerKind::kLaminar, s1.c, s1.theta,
-                                                    s1.dstar, s1.ue, flow_);
+            const Closure<double> k =
+                close_station(LayerKind::kLaminar, s1.c, s1.theta, s1.dstar, s1.ue, flow_);
             c_(i2) = s1.c + (x2 - x1) * amplification_rate(k.hk, s1.theta, k.re_theta);
           }
           kinds_[i2] = LayerKind::kLaminar;
@@ -385,9 +396,9 @@ class CoupledSystem {
     const int n = lay_.n;
     jac_(r, i) += dc;
     jac_(r, n + i) += dth;
-    const double u = ue_(i);
+    const double u = dstar_speed(i);
     jac_(r, 2 * n + i) += dds / u;
-    const double coef = due - dds * mu_(i) / (u * u);
+    const double coef = due - (ue_(i) > kMinDstarSpeed ? dds * mu_(i) / (u * u) : 0.0);
     if (coef != 0.0) jac_.row(r).segment(2 * n, n) += coef * lay_.d.row(i);
   }
 
@@ -427,15 +438,15 @@ class CoupledSystem {
           spec.type = IntervalType::kTransition;
           spec.trip_fraction = trip_fraction(side, i1, i2);
         } else {
-          spec.type = kinds_[i2] == LayerKind::kLaminar ? IntervalType::kLaminar
-                                                        : IntervalType::kTurbulent;
+          spec.type =
+              kinds_[i2] == LayerKind::kLaminar ? IntervalType::kLaminar : IntervalType::kTurbulent;
         }
         double w = -1.0;
         // The first interval's arc lengths move with the stagnation point (log form in xi).
         Eigen::Vector3d d_origin = Eigen::Vector3d::Zero();
         const bool first = p == 1 && ue_(lay_.stag) > 1e-10 && ue_(lay_.stag + 1) > 1e-10;
-        const IntervalLinearization lin = linearize_interval(
-            spec, station(i1), station(i2), flow_, &w, first ? &d_origin : nullptr);
+        const IntervalLinearization lin = linearize_interval(spec, station(i1), station(i2), flow_,
+                                                             &w, first ? &d_origin : nullptr);
         if (spec.type == IntervalType::kTransition) transition_weight_[side] = w;
         double d_uk = 0.0, d_uk1 = 0.0;
         if (first) first_xi(side, &d_uk, &d_uk1);
@@ -509,9 +520,12 @@ class CoupledSystem {
     };
     for (int i = 0; i < n; ++i) {
       limit(step_(n + i), 0.5 * th_(i));
-      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 1e-12);
-      if (kinds_[i] == LayerKind::kLaminar) limit(step_(i), 2.0);
-      else limit(step_(i), 0.5 * c_(i));
+      // m relative to itself, but not below a tenth of theta (m ~ 0 at the stagnation point).
+      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 0.05 * th_(i));
+      if (kinds_[i] == LayerKind::kLaminar)
+        limit(step_(i), 2.0);
+      else
+        limit(step_(i), 0.5 * c_(i));
     }
     // Keep every H above the closures' floor (see boundary_layer.cpp): scale the step down.
     const Eigen::VectorXd dmu = step_.segment(2 * n, n);
@@ -521,8 +535,12 @@ class CoupledSystem {
       for (int i = 0; i < n && ok; ++i) {
         const double u = ue_(i) + rlx * due(i);
         if (i == lay_.stag || i == lay_.stag + 1) continue;
-        if (u <= 0.0) { ok = false; break; }
-        const double h = ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
+        if (u <= 0.0) {
+          ok = false;
+          break;
+        }
+        const double h =
+            ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
         const double h0 = station(i).dstar / th_(i);
         if (h < 0.5 * (std::min(h0, 1.05) + 1.0)) ok = false;
       }
@@ -589,7 +607,8 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
   bool done = false;
   int it = 0;
   for (; it < options_.max_iterations; ++it) {
-    sys.relocate_stagnation();
+    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) {
+    }
     sys.assign_transition();
     r = sys.assemble();
     res.residual_history.push_back(r);
@@ -618,8 +637,7 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
         << " after " << it << " Newton iterations";
   } else {
     res.status = SolveStatus::kFailed;
-    msg << "failed: the Newton system became singular or non-finite after " << it
-        << " iterations";
+    msg << "failed: the Newton system became singular or non-finite after " << it << " iterations";
   }
   res.reason = msg.str();
 

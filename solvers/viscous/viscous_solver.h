@@ -25,12 +25,12 @@
 namespace fulmar::viscous {
 
 struct ViscousOptions {
-  double reynolds = 1.0e6;  // chord Reynolds number, 1e4 .. 1e9
-  double mach = 0.0;        // free-stream Mach number, 0 .. 0.7
+  double reynolds = 1.0e6;        // chord Reynolds number, 1e4 .. 1e9
+  double mach = 0.0;              // free-stream Mach number, 0 .. 0.7
   double n_crit = kDefaultNCrit;  // critical amplification factor, 0.5 .. 20
-  double trip_upper = 1.0;  // forced transition x/c on the upper surface, 0 .. 1 (1: free)
-  double trip_lower = 1.0;  // forced transition x/c on the lower surface, 0 .. 1 (1: free)
-  int max_iterations = 30;  // Newton iterations, 1 .. 500
+  double trip_upper = 1.0;        // forced transition x/c on the upper surface, 0 .. 1 (1: free)
+  double trip_lower = 1.0;        // forced transition x/c on the lower surface, 0 .. 1 (1: free)
+  int max_iterations = 30;        // Newton iterations, 1 .. 500
   // Stopping rule: converged when the largest absolute residual of all boundary-layer equations
   // (each a dimensionless increment of ln theta, ln H*, ln c or N over one interval) is below
   // `tolerance` after a full (unrelaxed) Newton step; 1e-14 .. 1e-3.
@@ -41,13 +41,13 @@ struct ViscousOptions {
 };
 
 enum class SolveStatus { kConverged, kNotConverged, kFailed };
-std::string to_string(SolveStatus status);        // "converged", "not_converged", "failed"
+std::string to_string(SolveStatus status);  // "converged", "not_converged", "failed"
 SolveStatus solve_status_from_string(const std::string& text);  // throws InputError
 
 // The boundary-layer state of a solution, to warm-start a neighbouring one (same shape).
 struct ViscousState {
-  int stagnation_node = -1;             // upper-side first node (the flow turns between it and +1)
-  std::vector<StationState> stations;   // #nodes surface stations then the wake stations
+  int stagnation_node = -1;            // upper-side first node (the flow turns between it and +1)
+  std::vector<StationState> stations;  // #nodes surface stations then the wake stations
   std::vector<LayerKind> kinds;
   bool valid() const { return stagnation_node >= 0 && !stations.empty(); }
 };
@@ -55,11 +55,11 @@ struct ViscousState {
 struct ViscousResult {
   bool converged = false;
   SolveStatus status = SolveStatus::kFailed;
-  std::string reason;        // what happened, with the measured residual against the tolerance
-  double residual = 0.0;     // final max |residual|
+  std::string reason;     // what happened, with the measured residual against the tolerance
+  double residual = 0.0;  // final max |residual|
   int iterations = 0;
   std::vector<double> residual_history;  // max |residual| before each Newton step
-  double alpha = 0.0;        // deg
+  double alpha = 0.0;                    // deg
   double cl = 0.0, cd = 0.0, cd_friction = 0.0, cd_pressure = 0.0, cm = 0.0;
   double transition_upper = 1.0, transition_lower = 1.0;  // x/c (1: laminar to the TE)
   // Per surface node (#nodes, node order): clockwise-positive speed q as in the inviscid solver,
