@@ -7,6 +7,24 @@
 #include "app/commands.h"
 #include "common/error.h"
 
+namespace {
+
+// Convention for every command's description: its first paragraph is the summary shown in the
+// parent's list of subcommands; the rest (details and the caution) is printed after the options.
+void move_details_to_footer(CLI::App& app) {
+  for (CLI::App* sub : app.get_subcommands([](CLI::App*) { return true; })) {
+    const std::string text = sub->get_description();
+    const auto cut = text.find("\n\n");
+    if (cut != std::string::npos) {
+      sub->description(text.substr(0, cut));
+      sub->footer("\n" + text.substr(cut + 2));
+    }
+    move_details_to_footer(*sub);
+  }
+}
+
+}  // namespace
+
 int main(int argc, char** argv) {
   CLI::App app{
       "fulmar shapes the wing section for one airplane: least drag at the cruise lift "
@@ -24,6 +42,7 @@ int main(int argc, char** argv) {
   fulmar::app::add_export_command(app);
   fulmar::app::add_optimize_command(app);
   fulmar::app::add_study_command(app);
+  move_details_to_footer(app);
 
   try {
     app.parse(argc, argv);
