@@ -1,5 +1,7 @@
 #include "optimize/case_file.h"
 
+#include "cad/export.h"
+
 #include <cmath>
 #include <fstream>
 #include <set>
@@ -408,6 +410,26 @@ OutputOptions read_outputs(Reader r) {
   if (auto c = r.optional_child("plots")) o.plots = c->boolean();
   if (auto c = r.optional_child("report")) o.report = c->boolean();
   if (auto c = r.optional_child("polars")) o.polars = c->boolean();
+  if (auto cad = r.optional_child("cad")) {
+    auto formats = cad->child("formats");
+    for (const Reader& f : formats.array()) {
+      const std::string name = f.string();
+      try {
+        cad::cad_format_from_string(name, f.path());
+      } catch (const InputError&) {
+        f.fail("must be one of dxf, iges, step, svg, csv (got \"" + name + "\")");
+      }
+      o.cad_formats.push_back(name);
+    }
+    if (o.cad_formats.empty()) formats.fail("must name at least one format");
+    if (auto u = cad->optional_child("units")) {
+      o.cad_units = u->string();
+      if (o.cad_units != "mm" && o.cad_units != "m" && o.cad_units != "in")
+        u->fail("must be mm, m or in (got \"" + o.cad_units + "\")");
+    }
+    if (auto ch = cad->optional_child("chord")) o.cad_chord = ch->positive();
+    cad->finish();
+  }
   r.finish();
   return o;
 }
@@ -559,7 +581,12 @@ Case parse_case(const std::string& text, const std::string& label,
   c.baseline = read_baseline(r.child("baseline"), base_dir);
   if (auto o = r.optional_child("optimizer")) c.optimizer = read_optimizer(*o);
   if (auto a = r.optional_child("analysis")) c.analysis = read_analysis(*a);
-  if (auto o = r.optional_child("outputs")) c.outputs = read_outputs(*o);
+  if (auto o = r.optional_child("outputs")) {
+    c.outputs = read_outputs(*o);
+    if (!c.outputs.cad_formats.empty() && c.outputs.cad_chord == 0 && !c.airplane)
+      o->fail_at(o->path() + "/cad/chord",
+                 "missing required field (no airplane gives the chord for the CAD files)");
+  }
   r.finish();
   return c;
 }

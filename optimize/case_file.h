@@ -131,6 +131,12 @@ struct OutputOptions {
   bool plots = true;   // SVG plots
   bool report = true;  // Markdown report
   bool polars = true;  // polar CSV files
+  // CAD files of the optimized section ("outputs": {"cad": {"formats": ["step", "dxf"],
+  // "chord": 1350, "units": "mm"}}): one file per format, B-splines within 1e-5 chord. The chord
+  // defaults to the airplane's chord in the chosen units.
+  std::vector<std::string> cad_formats;  // "dxf", "iges", "step", "svg", "csv"
+  double cad_chord = 0;                  // in cad_units; 0: the airplane's chord
+  std::string cad_units = "mm";          // "mm", "m" or "in"
 };
 
 struct Case {

@@ -1,5 +1,7 @@
 #include "optimize/run.h"
 
+#include "cad/export.h"
+
 #include <unistd.h>
 
 #include <algorithm>
@@ -316,6 +318,19 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
   put("baseline_cst", "baseline_cst.json",
       cst_to_json(baseline.shape, baseline.name).dump(2) + "\n");
   put("history", "history.csv", history_csv(r, problem.constraint_names(), tol));
+  for (const std::string& format_name : c.outputs.cad_formats) {
+    cad::ExportOptions e;
+    e.format = cad::cad_format_from_string(format_name);
+    e.placement.units = cad::length_unit_from_string(c.outputs.cad_units);
+    e.placement.chord = c.outputs.cad_chord > 0
+                            ? c.outputs.cad_chord
+                            : c.airplane->chord / cad::metres_per_unit(e.placement.units);
+    const std::string file = "optimized_cad." + format_name;
+    const cad::ExportReport report = cad::export_section(opt_section, e, dir / file);
+    files["cad_" + format_name] = (dir / file).string();
+    if (options.progress)
+      *options.progress << "wrote " << file << ": " << report.message << "\n" << std::flush;
+  }
 
   const auto conds = polar_conditions(c);
   SectionPolars base_p, opt_p;

@@ -115,6 +115,37 @@ TEST(Run, WritesEveryResultFile) {
   fs::remove_all(dir);
 }
 
+// The optimized section is also written for CAD when the case asks for it, at the airplane's
+// chord by default (0.9 m = 900 mm here). The files themselves are checked against the section by
+// independent readers in src/cad and tests/cad; here: written, named in the summary, right scale.
+TEST(Run, WritesCadFilesWhenAsked) {
+  const fs::path dir = scratch("cad");
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  Case c = small_case(60);
+  c.outputs.cad_formats = {"step", "dxf", "csv"};
+  const RunOutcome out = run_optimization(c, ev, o);
+  for (const char* f : {"optimized_cad.step", "optimized_cad.dxf", "optimized_cad.csv"}) {
+    ASSERT_TRUE(fs::exists(dir / f)) << f;
+  }
+  EXPECT_TRUE(out.summary["files"].contains("cad_step"));
+  EXPECT_TRUE(out.summary["files"].contains("cad_dxf"));
+  EXPECT_NE(slurp(dir / "optimized_cad.step").find("B_SPLINE_CURVE_WITH_KNOTS"), std::string::npos);
+  // The CAD CSV is placed at the chord in mm: its largest x is 900.
+  double x_max = 0;
+  std::istringstream csv(slurp(dir / "optimized_cad.csv"));
+  std::string line;
+  std::getline(csv, line);  // header
+  while (std::getline(csv, line)) {
+    if (line.empty()) continue;
+    x_max = std::max(x_max, std::stod(line.substr(0, line.find(','))));
+  }
+  EXPECT_NEAR(x_max, 900.0, 1e-6 * 900.0);
+  fs::remove_all(dir);
+}
+
 TEST(Run, InterruptWritesTheBestDesignAndResumeReachesTheSameOptimum) {
   const fs::path whole_dir = scratch("whole"), dir = scratch("interrupted");
   testing::AnalyticEvaluator ev;

@@ -165,6 +165,16 @@ const std::vector<BadCase> kBadCases = {
      "verify_panels"},
     {"TooFewOutputPoints", [](json& j) { j["outputs"]["points"] = 5; }, "/outputs/points",
      "must be in 21..2001"},
+    {"UnknownCadFormat", [](json& j) { j["outputs"]["cad"] = {{"formats", {"step", "stl"}}}; },
+     "/outputs/cad/formats/1", "must be one of dxf, iges, step, svg, csv"},
+    {"NoCadFormat", [](json& j) { j["outputs"]["cad"] = {{"formats", json::array()}}; },
+     "/outputs/cad/formats", "must name at least one format"},
+    {"BadCadUnits",
+     [](json& j) { j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"units", "ft"}}; },
+     "/outputs/cad/units", "must be mm, m or in"},
+    {"NegativeCadChord",
+     [](json& j) { j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"chord", -3}}; },
+     "/outputs/cad/chord", "must be > 0"},
 };
 
 INSTANTIATE_TEST_SUITE_P(CliOptimize, BadCaseFile, ::testing::ValuesIn(kBadCases),
