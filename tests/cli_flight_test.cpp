@@ -8,9 +8,9 @@
 namespace fulmar::testing {
 namespace {
 
-// The "Tern T-2" worked example of src/flight/flight_conditions_test.cpp (a fictional airplane of
+// The "Kittiwake K-3" worked example of src/flight/flight_conditions_test.cpp (a fictional airplane of
 // our own), through the command line: the same hand-calculated figures, 1e-4 relative.
-TEST(CliFlight, TernJson) {
+TEST(CliFlight, KittiwakeJson) {
   const CliResult r = run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord",
                                   "1.30", "--speed", "62", "--altitude", "2500", "--stall-speed",
                                   "25", "--json"});
