@@ -65,6 +65,7 @@ TEST(CliExport, JsonReportHoldsTheDeviationWithinTheTolerance) {
   EXPECT_GT(j.at("max_deviation").get<double>(), 0.0);
   EXPECT_EQ(j.at("curves").get<int>(), 2);
   EXPECT_EQ(j.at("units").get<std::string>(), "m");
+  // Exact: the deviation in length units is the chord (0.3 m) times the chord fraction.
   EXPECT_NEAR(j.at("max_deviation_length").get<double>(), 0.3 * j.at("max_deviation").get<double>(),
               1e-15);
 }

@@ -9,7 +9,8 @@ namespace fulmar::testing {
 namespace {
 
 // The "Kittiwake K-3" worked example of src/flight/flight_conditions_test.cpp (a fictional airplane of
-// our own), through the command line: the same hand-calculated figures, 1e-4 relative.
+// our own), through the command line: the same hand-calculated figures (exact solution of the lift
+// equation on the ISO 2533:1975 atmosphere), 1e-4 relative because they carry five figures.
 TEST(CliFlight, KittiwakeJson) {
   const CliResult r = run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord",
                                   "1.30", "--speed", "62", "--altitude", "2500", "--stall-speed",

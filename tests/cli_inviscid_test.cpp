@@ -32,6 +32,7 @@ TEST(CliInviscid, AnalyzeJsonKeys) {
   EXPECT_FALSE(j.contains("critical_exceeded"));
   EXPECT_TRUE(j["converged"].get<bool>());
   EXPECT_DOUBLE_EQ(j["alpha"].get<double>(), 4.0);
+  // Source: lift slope 2 pi (1 + 0.77 t/c) (from memory) with the thin-airfoil zero-lift angle.
   // Potential flow about a 12 % section with 2 % camber at 4 deg: cl about 2 pi (1 + 0.77 t/c)
   // (alpha - alpha_L0) = 6.86 * (4 + 2.1) deg = 0.73 (thin-airfoil zero-lift angle, see the
   // solver tests); 5 % covers the thickness-camber interaction.
@@ -80,7 +81,7 @@ TEST(CliInviscid, PolarJsonAndCsv) {
       EXPECT_TRUE(p.contains(key)) << key;
     }
   }
-  // Symmetric section: cl odd in alpha.
+  // Exact: a symmetric section's cl is odd in alpha.
   EXPECT_NEAR(j["points"][0]["cl"].get<double>(), -j["points"][2]["cl"].get<double>(), 1e-9);
   const std::string csv = read_file(file);
   EXPECT_EQ(csv.rfind("alpha,cl,cm,cp_min,converged\n", 0), 0u) << csv;
