@@ -1,5 +1,7 @@
 #include "optimize/svg_plot.h"
 
+#include "common/xml_text.h"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -8,22 +10,6 @@
 namespace fulmar::optimize {
 namespace {
 
-std::string esc(const std::string& s) {
-  std::string o;
-  for (char c : s) {
-    if (c == '<')
-      o += "&lt;";
-    else if (c == '>')
-      o += "&gt;";
-    else if (c == '&')
-      o += "&amp;";
-    else if (c == '"')
-      o += "&quot;";
-    else
-      o += c;
-  }
-  return o;
-}
 
 std::string f(double v) {
   char buf[32];
@@ -90,7 +76,7 @@ void draw_chart(std::ostringstream& o, const Chart& c, double x0, double y0, dou
   };
   o << "<g font-family=\"Helvetica, Arial, sans-serif\" font-size=\"11\" fill=\"#333\">\n";
   o << "<text x=\"" << f(x0 + left) << "\" y=\"" << f(y0 + 18)
-    << "\" font-size=\"13\" font-weight=\"bold\">" << esc(c.title) << "</text>\n";
+    << "\" font-size=\"13\" font-weight=\"bold\">" << xml_escaped(c.title) << "</text>\n";
   o << "<rect x=\"" << f(x0 + left) << "\" y=\"" << f(y0 + top) << "\" width=\"" << f(pw)
     << "\" height=\"" << f(ph) << "\" fill=\"#fbfbfb\" stroke=\"#999\" stroke-width=\"0.8\"/>\n";
   for (double v = std::ceil(xlo / xs) * xs; v <= xhi + 1e-9 * xs; v += xs) {
@@ -107,22 +93,22 @@ void draw_chart(std::ostringstream& o, const Chart& c, double x0, double y0, dou
       << tick_text(v, ys) << "</text>\n";
   }
   o << "<text x=\"" << f(x0 + left + pw / 2) << "\" y=\"" << f(y0 + top + ph + 32)
-    << "\" text-anchor=\"middle\">" << esc(c.x_label) << "</text>\n";
+    << "\" text-anchor=\"middle\">" << xml_escaped(c.x_label) << "</text>\n";
   o << "<text transform=\"translate(" << f(x0 + 14) << "," << f(y0 + top + ph / 2)
-    << ") rotate(-90)\" text-anchor=\"middle\">" << esc(c.y_label) << "</text>\n";
+    << ") rotate(-90)\" text-anchor=\"middle\">" << xml_escaped(c.y_label) << "</text>\n";
   for (const auto& g : c.guides) {
     if (g.horizontal)
       o << "<line x1=\"" << f(x0 + left) << "\" y1=\"" << f(Y(g.value)) << "\" x2=\""
         << f(x0 + left + pw) << "\" y2=\"" << f(Y(g.value)) << "\" stroke=\"" << g.colour
         << "\" stroke-width=\"1\" stroke-dasharray=\"6 3\"/>\n"
         << "<text x=\"" << f(x0 + left + pw - 4) << "\" y=\"" << f(Y(g.value) - 4)
-        << "\" text-anchor=\"end\" fill=\"" << g.colour << "\">" << esc(g.label) << "</text>\n";
+        << "\" text-anchor=\"end\" fill=\"" << g.colour << "\">" << xml_escaped(g.label) << "</text>\n";
     else
       o << "<line x1=\"" << f(X(g.value)) << "\" y1=\"" << f(y0 + top) << "\" x2=\""
         << f(X(g.value)) << "\" y2=\"" << f(y0 + top + ph) << "\" stroke=\"" << g.colour
         << "\" stroke-width=\"1\" stroke-dasharray=\"6 3\"/>\n"
         << "<text x=\"" << f(X(g.value) + 4) << "\" y=\"" << f(y0 + top + 12) << "\" fill=\""
-        << g.colour << "\">" << esc(g.label) << "</text>\n";
+        << g.colour << "\">" << xml_escaped(g.label) << "</text>\n";
   }
   for (const auto& s : c.series) {
     if (s.line) {
@@ -154,7 +140,7 @@ void draw_chart(std::ostringstream& o, const Chart& c, double x0, double y0, dou
     o << "<line x1=\"" << f(lx) << "\" y1=\"" << f(ly - 4) << "\" x2=\"" << f(lx + 18) << "\" y2=\""
       << f(ly - 4) << "\" stroke=\"" << s.colour << "\" stroke-width=\"2\""
       << (s.dashed ? " stroke-dasharray=\"5 3\"" : "") << "/>\n<text x=\"" << f(lx + 24)
-      << "\" y=\"" << f(ly) << "\">" << esc(s.label) << "</text>\n";
+      << "\" y=\"" << f(ly) << "\">" << xml_escaped(s.label) << "</text>\n";
     ly += 15;
   }
   o << "</g>\n";

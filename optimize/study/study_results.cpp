@@ -1,5 +1,7 @@
 #include "optimize/study/study_results.h"
 
+#include "common/xml_text.h"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -35,22 +37,6 @@ std::string fixed(double v, int decimals) {
   return buf;
 }
 
-std::string xml(const std::string& s) {
-  std::string o;
-  for (char c : s) {
-    if (c == '<')
-      o += "&lt;";
-    else if (c == '>')
-      o += "&gt;";
-    else if (c == '&')
-      o += "&amp;";
-    else if (c == '"')
-      o += "&quot;";
-    else
-      o += c;
-  }
-  return o;
-}
 
 // The label of one design-point result: the point's name, with the scenario when the case has
 // several transition scenarios.
@@ -154,9 +140,9 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
     << "\" y=\"20\" font-size=\"13\" font-weight=\"bold\">Weighted cd of the optima"
     << " (numbers: active constraints)</text>\n"
     << "<text x=\"" << f(left + cell_w * double(cols.size()) / 2)
-    << "\" y=\"42\" text-anchor=\"middle\">" << xml(study.parameters[1].name) << "</text>\n"
+    << "\" y=\"42\" text-anchor=\"middle\">" << xml_escaped(study.parameters[1].name) << "</text>\n"
     << "<text transform=\"translate(16," << f(top + cell_h * double(rows.size()) / 2)
-    << ") rotate(-90)\" text-anchor=\"middle\">" << xml(study.parameters[0].name) << "</text>\n";
+    << ") rotate(-90)\" text-anchor=\"middle\">" << xml_escaped(study.parameters[0].name) << "</text>\n";
   for (size_t j = 0; j < cols.size(); ++j)
     o << "<text x=\"" << f(left + cell_w * (double(j) + 0.5)) << "\" y=\"" << f(top - 4)
       << "\" text-anchor=\"middle\">" << number_text(cols[j]) << "</text>\n";
@@ -190,7 +176,7 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
         if (!rec->summary.value("feasible", false))
           marks += marks.empty() ? "infeasible" : " infeasible";
         o << "<text x=\"" << f(x + cell_w / 2) << "\" y=\"" << f(y + 32)
-          << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">" << xml(marks)
+          << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">" << xml_escaped(marks)
           << "</text>\n";
       }
     }
@@ -202,7 +188,7 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
   for (size_t k = 0; k < active_keys.size(); ++k) {
     ly += 16;
     o << "<text x=\"" << f(left + 12) << "\" y=\"" << f(ly) << "\">" << k + 1 << ": "
-      << xml(active_keys[k]) << "</text>\n";
+      << xml_escaped(active_keys[k]) << "</text>\n";
   }
   o << "</g>\n</svg>\n";
   return o.str();

@@ -1,5 +1,7 @@
 #include "cad/writers.h"
 
+#include "common/xml_text.h"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -668,28 +670,6 @@ std::string csv_text(const CadDrawing& d) {
 
 namespace {
 
-std::string xml_escape(const std::string& text) {
-  std::string out;
-  for (char c : ascii(text)) {
-    switch (c) {
-      case '&':
-        out += "&amp;";
-        break;
-      case '<':
-        out += "&lt;";
-        break;
-      case '>':
-        out += "&gt;";
-        break;
-      case '"':
-        out += "&quot;";
-        break;
-      default:
-        out += c;
-    }
-  }
-  return out;
-}
 
 std::string num(double v) {
   char buf[32];
@@ -721,7 +701,7 @@ std::string svg_text(const CadDrawing& d) {
     << num(width * sheet_scale) << sheet_unit << "\" height=\"" << num(height * sheet_scale)
     << sheet_unit << "\" viewBox=\"" << num(x0) << " " << num(y_top) << " " << num(width) << " "
     << num(height) << "\">\n"
-    << "<title>" << xml_escape(d.name) << "</title>\n"
+    << "<title>" << xml_escaped(d.name) << "</title>\n"
     << "<rect x=\"" << num(x0) << "\" y=\"" << num(y_top) << "\" width=\"" << num(width)
     << "\" height=\"" << num(height) << "\" fill=\"white\"/>\n";
   // Chord line, dashed.
@@ -744,7 +724,7 @@ std::string svg_text(const CadDrawing& d) {
     << num(stroke * 2.5) << "\" fill=\"#b03a2e\"/>\n";
   // Labels above the section.
   std::ostringstream line1, line2;
-  line1 << xml_escape(d.name) << " - chord " << num(chord) << " " << u;
+  line1 << xml_escaped(d.name) << " - chord " << num(chord) << " " << u;
   line2 << "twist " << num(d.placement.twist_deg) << " deg (nose up +) about x/c "
         << num(d.placement.pivot) << " (dot); plane z = " << num(d.placement.offset.z()) << " "
         << u;
