@@ -6,6 +6,7 @@
 #include <memory>
 
 #include "app/commands.h"
+#include "app/stop_signal.h"
 #include "common/error.h"
 #include "optimize/case_file.h"
 #include "optimize/run.h"
@@ -14,12 +15,6 @@
 
 namespace fulmar::app {
 namespace {
-
-std::atomic<bool> g_stop{false};
-
-extern "C" void request_stop(int /*signal*/) {
-  g_stop.store(true);
-}
 
 struct OptimizeArgs {
   std::string case_file;
@@ -64,22 +59,14 @@ void run_optimize(const OptimizeArgs& a) {
   options.output_dir = dir;
   options.resume = a.resume;
   options.progress = &std::cout;
-  options.stop = &g_stop;
   options.threads = a.threads;
   options.caution = kCaution;
-  g_stop.store(false);
-  auto old_int = std::signal(SIGINT, request_stop);
-  auto old_term = std::signal(SIGTERM, request_stop);
   optimize::RunOutcome out;
-  try {
+  {
+    const StopOnSignal stop;
+    options.stop = stop.flag();
     out = optimize::run_optimization(c, *evaluator, options);
-  } catch (...) {
-    std::signal(SIGINT, old_int);
-    std::signal(SIGTERM, old_term);
-    throw;
   }
-  std::signal(SIGINT, old_int);
-  std::signal(SIGTERM, old_term);
   const auto& s = out.summary;
   std::cout << (out.interrupted
                     ? "stopped by a signal; the best feasible design so far is written"

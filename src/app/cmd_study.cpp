@@ -6,6 +6,7 @@
 #include <memory>
 
 #include "app/commands.h"
+#include "app/stop_signal.h"
 #include "common/error.h"
 #include "optimize/run.h"
 #include "optimize/study/study_case.h"
@@ -16,12 +17,6 @@ namespace fulmar::app {
 namespace {
 
 namespace fs = std::filesystem;
-
-std::atomic<bool> g_stop{false};
-
-extern "C" void request_study_stop(int /*signal*/) {
-  g_stop.store(true);
-}
 
 struct StudyArgs {
   std::string case_file;
@@ -68,21 +63,13 @@ void run_study_command(const StudyArgs& a) {
   o.shard = shard;
   o.resume = a.resume;
   o.progress = &std::cout;
-  o.stop = &g_stop;
   o.caution = kCaution;
-  g_stop.store(false);
-  auto old_int = std::signal(SIGINT, request_study_stop);
-  auto old_term = std::signal(SIGTERM, request_study_stop);
   study::StudyOutcome out;
-  try {
+  {
+    const StopOnSignal stop;
+    o.stop = stop.flag();
     out = study::run_study(s, *evaluator, o);
-  } catch (...) {
-    std::signal(SIGINT, old_int);
-    std::signal(SIGTERM, old_term);
-    throw;
   }
-  std::signal(SIGINT, old_int);
-  std::signal(SIGTERM, old_term);
   std::cout << (out.interrupted ? "stopped by a signal; continue with --resume. " : "")
             << out.points_run << " point(s) optimized, " << out.points_skipped
             << " kept from before; " << out.points_finished << " of " << out.points_total
