@@ -153,6 +153,7 @@ class CoupledSystem {
     th_.resize(lay_.n);
     mu_.resize(lay_.n);
     ue_.resize(lay_.n);
+    cold_ue_ = Eigen::VectorXd::Ones(lay_.n);
     kinds_.assign(static_cast<std::size_t>(lay_.n), LayerKind::kLaminar);
   }
 
@@ -177,9 +178,15 @@ class CoupledSystem {
       const double xi0 = first_xi(side);
       for (int p = 0; p < m; ++p) {
         x(p) = xi0 + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
-        // The first station may sit on the stagnation point (ue ~ xi ~ 0): keep the ratio.
-        ue(p) = std::max(lay_.ue_inviscid(idx[p]), p == 0 ? 1e-10 : 1e-3);
+        ue(p) = p == 0 ? first_speed(side) : std::max(lay_.ue_inviscid(idx[p]), 1e-3);
       }
+      // The inviscid speed falls steeply over the last panels towards the trailing-edge
+      // stagnation of a finite-angle edge, which the displacement effect removes; a march on it
+      // would start Newton from a layer far too thick there. Continue the trend of the two
+      // panels before instead (initial guess only).
+      if (m >= 6)
+        for (int p = m - 2; p < m; ++p) ue(p) = std::max(ue(p), 2.0 * ue(p - 1) - ue(p - 2));
+      for (int p = 0; p < m; ++p) cold_ue_(idx[p]) = ue(p);
       const double trip = trip_arc(side, idx, x);
       const MarchResult mr = march_surface(x, ue, 1.0, trip, flow_, true);
       for (int p = 0; p < m; ++p) {
@@ -197,7 +204,8 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j) {
       const int i = lay_.n_surface + j;
       x(j) = lay_.s(i);
-      ue(j) = std::max(lay_.ue_inviscid(i), 0.05);
+      // The same in the near wake: no dip below the trailing-edge speed.
+      ue(j) = std::max(lay_.ue_inviscid(i), 0.5 * (cold_ue_(0) + cold_ue_(lay_.n_surface - 1)));
       gap(j) = lay_.gap(i);
     }
     StationState first = merged;
@@ -224,6 +232,12 @@ class CoupledSystem {
       mu_(i) = s.ue * s.dstar;
       kinds_[i] = st.kinds[i];
     }
+    // Keep each station's delta* (the layer's own state) at this angle's speeds.
+    ue_valid_ = true;
+    for (int pass = 0; pass < 2; ++pass) {
+      update_edge_velocity();
+      for (int i = 0; i < lay_.n; ++i) mu_(i) = dstar_speed(i) * st.stations[i].dstar;
+    }
     return true;
   }
 
@@ -240,11 +254,17 @@ class CoupledSystem {
       nk = k + 1;
     if (nk == k) return false;
     const int moved = nk < k ? k : k + 1;  // the node that changes side
-    const double dstar = std::max(mu_(moved) / std::max(std::abs(ue_(moved)), 1e-9), 1e-9);
+    // The nodes around the stagnation point keep their delta* (the speed that converts m into
+    // delta* changes with their role); the node that changes sides sat next to the stagnation
+    // point: a laminar layer near the stagnation similarity state (H about 2.2).
+    const int lo = std::max(0, std::min(k, nk) - 1), hi = std::min(lay_.n_surface - 1, std::max(k, nk) + 2);
+    std::vector<double> dstar;
+    for (int i = lo; i <= hi; ++i) dstar.push_back(i == moved ? 2.2 * th_(i) : station(i).dstar);
     set_stagnation(nk);
-    update_edge_velocity();
-    const double u = std::max(ue_(moved), 1e-6);
-    mu_(moved) = u * std::min(dstar, 2.2 * th_(moved) * 2.0);
+    for (int pass = 0; pass < 2; ++pass) {
+      update_edge_velocity();
+      for (int i = lo; i <= hi; ++i) mu_(i) = dstar_speed(i) * dstar[static_cast<std::size_t>(i - lo)];
+    }
     c_(moved) = 0.0;
     kinds_[moved] = LayerKind::kLaminar;
     update_edge_velocity();
@@ -262,17 +282,71 @@ class CoupledSystem {
     return idx;
   }
 
-  // Arc length from the stagnation point to the first station of a side (from the current or
-  // inviscid speeds), and its derivatives with respect to ue at the two nodes around it.
+  // Where the stagnation point lies between the nodes k = stag and k + 1, as the fraction t of
+  // that interval from the first node of `side` (t = u_k / (u_k + u_k+1) on the upper side), from
+  // the current or inviscid speeds. The first station of a side is modelled at no less than
+  // kMinStagnationFraction of the interval (smoothly): a node that sits on the stagnation point
+  // would otherwise carry ue ~ 0, where delta* = m / ue and ln ue are ill-conditioned and the
+  // Newton system near-singular. The model moves the stagnation point by at most that fraction of
+  // one leading-edge panel (~1e-4 chord).
+  static constexpr double kMinStagnationFraction = 0.05;
+  struct StagnationFraction {
+    double t = 0.5, sum = 1.0;  // modelled fraction and u_k + u_k+1
+    double d_uk = 0.0, d_uk1 = 0.0;  // dt / du_k, dt / du_k+1
+  };
+  StagnationFraction stagnation_fraction(int side) const {
+    const int k = lay_.stag;
+    const Eigen::VectorXd& u = ue_valid_ ? ue_ : lay_.ue_inviscid;
+    const double a = u(k), b = u(k + 1);
+    StagnationFraction f;
+    f.sum = std::max(a + b, 1e-10);
+    const double raw = (side == 0 ? a : b) / f.sum;
+    double draw_da = (side == 0 ? b : -b) / (f.sum * f.sum);
+    double draw_db = (side == 0 ? -a : a) / (f.sum * f.sum);
+    if (a + b <= 1e-10) draw_da = draw_db = 0.0;
+    constexpr double lo = kMinStagnationFraction, w = 0.8 * kMinStagnationFraction;
+    double slope = 1.0;
+    f.t = raw;
+    if (raw <= lo - w) {
+      f.t = lo;
+      slope = 0.0;
+    } else if (raw < lo + w) {
+      const double g = lo + w - raw;
+      f.t = raw + g * g / (4.0 * w);
+      slope = 1.0 - g / (2.0 * w);
+    }
+    f.d_uk = slope * draw_da;
+    f.d_uk1 = slope * draw_db;
+    return f;
+  }
+
+  // Arc length from the stagnation point to the first station of a side, and its derivatives
+  // with respect to ue at the two nodes around the stagnation point.
   double first_xi(int side, double* d_uk = nullptr, double* d_uk1 = nullptr) const {
     const int k = lay_.stag;
     const double ds = std::abs(lay_.s(k + 1) - lay_.s(k));
-    const Eigen::VectorXd& u = ue_valid_ ? ue_ : lay_.ue_inviscid;
-    const double a = std::max(u(k), 1e-10), b = std::max(u(k + 1), 1e-10), sum = a + b;
-    const double frac = (side == 0 ? a : b) / sum;
-    if (d_uk) *d_uk = (side == 0 ? b : -b) / (sum * sum) * ds;
-    if (d_uk1) *d_uk1 = (side == 0 ? -a : a) / (sum * sum) * ds;
-    return frac * ds;
+    const StagnationFraction f = stagnation_fraction(side);
+    if (d_uk) *d_uk = f.d_uk * ds;
+    if (d_uk1) *d_uk1 = f.d_uk1 * ds;
+    return f.t * ds;
+  }
+
+  // The edge speed the boundary layer sees at the first station of a side: t (u_k + u_k+1), the
+  // stagnation-point velocity gradient times first_xi (equal to the node's own speed unless the
+  // node is within the modelled minimum distance of the stagnation point); derivatives as above.
+  double first_speed(int side, double* d_uk = nullptr, double* d_uk1 = nullptr) const {
+    const StagnationFraction f = stagnation_fraction(side);
+    const bool has_sum = f.sum > 1e-10;
+    if (d_uk) *d_uk = f.d_uk * f.sum + (has_sum ? f.t : 0.0);
+    if (d_uk1) *d_uk1 = f.d_uk1 * f.sum + (has_sum ? f.t : 0.0);
+    return f.t * f.sum;
+  }
+
+  // Side whose first station is node i, or -1.
+  int first_station_side(int i) const {
+    if (i == lay_.stag) return 0;
+    if (i == lay_.stag + 1) return 1;
+    return -1;
   }
 
   // Arc length along the side (same origin as the stations' x) of the forced transition point.
@@ -303,13 +377,18 @@ class CoupledSystem {
   // stagnation point ue ~ 0 is set by tiny mass-defect effects and m / ue would be meaningless
   // there (m -> 0 with ue; the similarity equations then fix delta* through m / kMinDstarSpeed).
   static constexpr double kMinDstarSpeed = 1e-4;
-  double dstar_speed(int i) const { return std::max(ue_(i), kMinDstarSpeed); }
+  double dstar_speed(int i) const {
+    const int side = first_station_side(i);
+    if (side >= 0) return first_speed(side);
+    return std::max(ue_(i), kMinDstarSpeed);
+  }
 
   StationState station(int i) const {
     StationState s;
     s.c = c_(i);
     s.theta = th_(i);
-    s.ue = ue_(i);
+    const int side = first_station_side(i);
+    s.ue = side >= 0 ? first_speed(side) : ue_(i);
     s.dstar = mu_(i) / dstar_speed(i);
     return s;
   }
@@ -330,7 +409,7 @@ class CoupledSystem {
     StationState s;
     s.c = c_(i);
     s.theta = th_(i);
-    s.ue = ue_valid_ ? ue_(i) : std::max(lay_.ue_inviscid(i), 1e-3);
+    s.ue = ue_valid_ ? ue_(i) : cold_ue_(i);
     s.dstar = mu_(i) / s.ue;
     return s;
   }
@@ -391,15 +470,29 @@ class CoupledSystem {
   }
 
   // Adds dR/d(c, theta, delta*, ue) of station i to row r of the Jacobian (chain rule through
-  // delta* = m / ue and ue = ue_inv + D m).
+  // delta* = m / ue and ue = ue_inv + D m; at a first station through first_speed).
   void add_row(int r, int i, double dc, double dth, double dds, double due) {
     const int n = lay_.n;
     jac_(r, i) += dc;
     jac_(r, n + i) += dth;
     const double u = dstar_speed(i);
     jac_(r, 2 * n + i) += dds / u;
+    const int side = first_station_side(i);
+    if (side >= 0) {
+      const double coef = due - dds * mu_(i) / (u * u);
+      double d_uk = 0.0, d_uk1 = 0.0;
+      first_speed(side, &d_uk, &d_uk1);
+      add_speed(r, lay_.stag, coef * d_uk);
+      add_speed(r, lay_.stag + 1, coef * d_uk1);
+      return;
+    }
     const double coef = due - (ue_(i) > kMinDstarSpeed ? dds * mu_(i) / (u * u) : 0.0);
-    if (coef != 0.0) jac_.row(r).segment(2 * n, n) += coef * lay_.d.row(i);
+    add_speed(r, i, coef);
+  }
+
+  // Adds dR/d(ue_i) = coef to row r (through ue = ue_inv + D m).
+  void add_speed(int r, int i, double coef) {
+    if (coef != 0.0) jac_.row(r).segment(2 * lay_.n, lay_.n) += coef * lay_.d.row(i);
   }
 
   // Residuals and Jacobian at the current state; returns max |residual|.
@@ -423,10 +516,8 @@ class CoupledSystem {
           add_row(r, i, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
           // Through the stagnation point's position.
           const double dx = lin.j(e, 0);
-          if (ue_(lay_.stag) > 1e-10 && ue_(lay_.stag + 1) > 1e-10) {
-            add_row(r, lay_.stag, 0.0, 0.0, 0.0, dx * d_uk);
-            add_row(r, lay_.stag + 1, 0.0, 0.0, 0.0, dx * d_uk1);
-          }
+          add_speed(r, lay_.stag, dx * d_uk);
+          add_speed(r, lay_.stag + 1, dx * d_uk1);
         }
       }
       for (std::size_t p = 1; p < idx.size(); ++p) {
@@ -442,9 +533,10 @@ class CoupledSystem {
               kinds_[i2] == LayerKind::kLaminar ? IntervalType::kLaminar : IntervalType::kTurbulent;
         }
         double w = -1.0;
-        // The first interval's arc lengths move with the stagnation point (log form in xi).
+        // Every wall station's xi is measured from the stagnation point, which moves with the
+        // speeds at the two nodes around it.
         Eigen::Vector3d d_origin = Eigen::Vector3d::Zero();
-        const bool first = p == 1 && ue_(lay_.stag) > 1e-10 && ue_(lay_.stag + 1) > 1e-10;
+        const bool first = true;
         const IntervalLinearization lin = linearize_interval(spec, station(i1), station(i2), flow_,
                                                              &w, first ? &d_origin : nullptr);
         if (spec.type == IntervalType::kTransition) transition_weight_[side] = w;
@@ -456,8 +548,8 @@ class CoupledSystem {
           add_row(r, i1, lin.j(e, 0), lin.j(e, 1), lin.j(e, 2), lin.j(e, 3));
           add_row(r, i2, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
           if (first) {
-            add_row(r, lay_.stag, 0.0, 0.0, 0.0, d_origin(e) * d_uk);
-            add_row(r, lay_.stag + 1, 0.0, 0.0, 0.0, d_origin(e) * d_uk1);
+            add_speed(r, lay_.stag, d_origin(e) * d_uk);
+            add_speed(r, lay_.stag + 1, d_origin(e) * d_uk1);
           }
         }
       }
@@ -477,16 +569,19 @@ class CoupledSystem {
       add_row(r, u, lam_u ? 0.0 : -a.theta / tsum, -(cu - cm) / tsum, 0.0, 0.0);
       add_row(r, l, lam_l ? 0.0 : -b.theta / tsum, -(cl - cm) / tsum, 0.0, 0.0);
       r = 3 * w0 + 1;
+      // (w - S) / S = w / S - 1: d/dS = -w / S^2.
       res_(r) = (w.theta - tsum) / tsum;
+      const double dts = -w.theta / (tsum * tsum);
       add_row(r, w0, 0.0, 1.0 / tsum, 0.0, 0.0);
-      add_row(r, u, 0.0, -1.0 / tsum, 0.0, 0.0);
-      add_row(r, l, 0.0, -1.0 / tsum, 0.0, 0.0);
+      add_row(r, u, 0.0, dts, 0.0, 0.0);
+      add_row(r, l, 0.0, dts, 0.0, 0.0);
       r = 3 * w0 + 2;
       const double dscale = a.dstar + b.dstar + te_gap_;
       res_(r) = (w.dstar - dscale) / dscale;
+      const double dds = -w.dstar / (dscale * dscale);
       add_row(r, w0, 0.0, 0.0, 1.0 / dscale, 0.0);
-      add_row(r, u, 0.0, 0.0, -1.0 / dscale, 0.0);
-      add_row(r, l, 0.0, 0.0, -1.0 / dscale, 0.0);
+      add_row(r, u, 0.0, 0.0, dds, 0.0);
+      add_row(r, l, 0.0, 0.0, dds, 0.0);
     }
     for (int j = 1; j < lay_.n_wake; ++j) {
       const int i1 = lay_.n_surface + j - 1, i2 = i1 + 1;
@@ -558,6 +653,33 @@ class CoupledSystem {
     return rlx;
   }
 
+  // The Jacobian of assemble() by central differences (kinds and transition intervals held),
+  // column by column, with relative steps; restores the state. For the consistency test.
+  Eigen::MatrixXd difference_jacobian(double rel_step) {
+    const int n3 = 3 * lay_.n;
+    Eigen::MatrixXd fd(n3, n3);
+    Eigen::VectorXd* parts[3] = {&c_, &th_, &mu_};
+    for (int col = 0; col < n3; ++col) {
+      Eigen::VectorXd& v = *parts[col / lay_.n];
+      const int i = col % lay_.n;
+      const double v0 = v(i);
+      const double h = rel_step * std::max(std::abs(v0), col / lay_.n == 0 ? 1e-2 : 1e-6);
+      v(i) = v0 + h;
+      update_edge_velocity();
+      assemble();
+      const Eigen::VectorXd rp = res_;
+      v(i) = v0 - h;
+      update_edge_velocity();
+      assemble();
+      fd.col(col) = (rp - res_) / (2.0 * h);
+      v(i) = v0;
+    }
+    update_edge_velocity();
+    assemble();
+    return fd;
+  }
+  const Eigen::MatrixXd& jacobian() const { return jac_; }
+
   void mark_ue_valid() { ue_valid_ = true; }
   const Eigen::VectorXd& ue() const { return ue_; }
   const Eigen::VectorXd& c() const { return c_; }
@@ -582,11 +704,31 @@ class CoupledSystem {
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
   bool ue_valid_ = false;
+  Eigen::VectorXd cold_ue_;  // the speeds of the cold-start marches
   int transition_interval_[2] = {-1, -1};
   double transition_weight_[2] = {1.0, 1.0};
 };
 
 }  // namespace
+
+JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps) const {
+  const CouplingModel model = inviscid_.coupling_model(alpha_deg * kDeg);
+  CoupledSystem sys(inviscid_, model, options_, flow_);
+  sys.cold_start();
+  sys.update_edge_velocity();
+  sys.mark_ue_valid();
+  for (int it = 0; it <= newton_steps; ++it) {
+    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) {
+    }
+    sys.assign_transition();
+    sys.assemble();
+    if (it < newton_steps) sys.newton_step();
+  }
+  JacobianCheck out;
+  out.analytic = sys.jacobian();
+  out.difference = sys.difference_jacobian(1e-6);
+  return out;
+}
 
 ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* warm_start) const {
   ViscousResult res;

@@ -71,6 +71,10 @@ struct ViscousResult {
   nlohmann::json to_json() const;  // scalars and residual history (no per-node vectors)
 };
 
+struct JacobianCheck {
+  Eigen::MatrixXd analytic, difference;
+};
+
 class ViscousSolver {
  public:
   // `nodes`: #nodes by 2 panel nodes (see solvers/inviscid/panel_solver.h: upper TE first,
@@ -85,6 +89,11 @@ class ViscousSolver {
   // Solution at lift coefficient `cl` (secant iteration on alpha, warm-started, to
   // |cl - target| < 1e-5); converged false with a reason when it cannot be reached.
   ViscousResult solve_cl(double cl, const ViscousState* warm_start = nullptr) const;
+
+  // For the consistency test: the Newton Jacobian (3 #stations square; columns c, theta, m per
+  // station) after `newton_steps` steps from a cold start at `alpha_deg`, and the same by central
+  // differences of the residuals (layer kinds held fixed).
+  JacobianCheck jacobian_check(double alpha_deg, int newton_steps) const;
 
   const InviscidSolver& inviscid() const { return inviscid_; }
   const ViscousOptions& options() const { return options_; }
