@@ -11,26 +11,37 @@
 
 #include "app/cli_checks.h"
 #include "app/commands.h"
+#include "app/section_options.h"
 #include "common/atomic_file.h"
 #include "common/error.h"
 #include "geometry/panelling.h"
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
+#include "solvers/viscous/viscous_solver.h"
 
 namespace fulmar::app {
 namespace {
 
 struct AnalyzeArgs {
-  std::string shape;
+  SectionArgs section;
+  ViscousArgs flow;
   std::optional<double> alpha_deg;
   std::optional<double> cl;
-  bool inviscid = false;
-  double mach = 0.0;
-  bool mach_given = false;
-  int panels = 160;
   std::string surface_csv;
   bool json = false;
 };
+
+// The panel node farthest from the trailing-edge midpoint: the end of the upper surface in the
+// surface tables.
+int leading_edge_node(const Points& p) {
+  const int n = static_cast<int>(p.rows());
+  const Eigen::RowVector2d te_mid = 0.5 * (p.row(0) + p.row(n - 1));
+  int le = 0;
+  for (int i = 0; i < n; ++i) {
+    if ((p.row(i) - te_mid).norm() > (p.row(le) - te_mid).norm()) le = i;
+  }
+  return le;
+}
 
 // The surface table: one row per panel node, upper trailing edge -> leading edge -> lower
 // trailing edge. `ue` is the edge velocity over the free stream, positive in the direction from
@@ -39,11 +50,7 @@ struct AnalyzeArgs {
 std::string surface_table(const InviscidSolver& solver, const InviscidResult& r) {
   const Points& p = solver.nodes();
   const int n = static_cast<int>(p.rows());
-  const Eigen::RowVector2d te_mid = 0.5 * (p.row(0) + p.row(n - 1));
-  int le = 0;
-  for (int i = 0; i < n; ++i) {
-    if ((p.row(i) - te_mid).norm() > (p.row(le) - te_mid).norm()) le = i;
-  }
+  const int le = leading_edge_node(p);
   std::ostringstream out;
   out.precision(10);
   out << "node,surface,x,y,s,cp,ue\n";
@@ -55,24 +62,24 @@ std::string surface_table(const InviscidSolver& solver, const InviscidResult& r)
   return out.str();
 }
 
-void run_inviscid(const AnalyzeArgs& a) {
-  if (!a.surface_csv.empty()) require_writable(a.surface_csv);
-  const Section section = load_shape(a.shape);
-  PanellingOptions panelling;
-  panelling.panels = a.panels;
+void run_inviscid(const AnalyzeArgs& args) {
+  const SectionArgs& a = args.section;
+  if (!args.surface_csv.empty()) require_writable(args.surface_csv);
+  Section section;
+  const Points nodes = section_nodes(a, section);
   InviscidOptions options;
   options.mach = a.mach;
-  const InviscidSolver solver(panel_nodes(section, panelling), options);
+  const InviscidSolver solver(nodes, options);
   InviscidResult r;
-  if (a.alpha_deg) {
-    solver.solve(*a.alpha_deg * std::numbers::pi / 180.0, r);
+  if (args.alpha_deg) {
+    solver.solve(*args.alpha_deg * std::numbers::pi / 180.0, r);
   } else {
-    solver.solve_for_cl(*a.cl, r);
+    solver.solve_for_cl(*args.cl, r);
   }
-  if (!a.surface_csv.empty()) write_file_atomically(a.surface_csv, surface_table(solver, r));
+  if (!args.surface_csv.empty()) write_file_atomically(args.surface_csv, surface_table(solver, r));
 
   const double alpha_deg = r.alpha * 180.0 / std::numbers::pi;
-  if (a.json) {
+  if (args.json) {
     nlohmann::json j{{"shape", section.name},
                      {"analysis", "inviscid"},
                      {"panels", a.panels},
@@ -89,7 +96,7 @@ void run_inviscid(const AnalyzeArgs& a) {
       j["cp_critical"] = r.cp_critical;
       j["critical_exceeded"] = r.critical_exceeded;
     }
-    if (a.cl) j["cl_target"] = *a.cl;
+    if (args.cl) j["cl_target"] = *args.cl;
     std::cout << j.dump(2) << "\n";
     return;
   }
@@ -107,15 +114,111 @@ void run_inviscid(const AnalyzeArgs& a) {
   std::printf("  %s: %s\n", r.converged ? "converged" : "NOT converged", r.message.c_str());
 }
 
+// The viscous surface table: the inviscid table's columns (ue from the viscous solution), then
+// the boundary layer at each node: momentum and displacement thickness over the chord, shape
+// factor H = dstar/theta, skin friction on the free-stream dynamic pressure, the regime
+// (laminar or turbulent) and its transport variable: amplification factor N where laminar,
+// sqrt of the shear-stress coefficient where turbulent.
+std::string viscous_surface_table(const InviscidSolver& solver, const viscous::ViscousResult& r) {
+  const Points& p = solver.nodes();
+  const int n = static_cast<int>(p.rows());
+  const int le = leading_edge_node(p);
+  const bool have_kinds = static_cast<int>(r.state.kinds.size()) >= n;
+  std::ostringstream out;
+  out.precision(10);
+  out << "node,surface,x,y,s,cp,ue,theta,dstar,shape_factor,cf,regime,n_or_sqrt_ctau\n";
+  for (int i = 0; i < n; ++i) {
+    const bool upper = i <= le;
+    bool laminar = false;
+    if (have_kinds) {
+      laminar = r.state.kinds[i] == viscous::LayerKind::kLaminar;
+    } else {  // not converged: no layer kinds kept; judge by the transition point
+      laminar = p(i, 0) < (upper ? r.transition_upper : r.transition_lower);
+    }
+    out << i << ',' << (upper ? "upper" : "lower") << ',' << p(i, 0) << ',' << p(i, 1) << ','
+        << solver.arc_length()(i) << ',' << r.cp(i) << ',' << (upper ? r.ue(i) : -r.ue(i)) << ','
+        << r.theta(i) << ',' << r.dstar(i) << ',' << r.shape(i) << ',' << r.cf(i) << ','
+        << (laminar ? "laminar" : "turbulent") << ',' << r.amplification(i) << '\n';
+  }
+  return out.str();
+}
+
+// A per-node vector is usable in the table: the right size and finite.
+bool finite_vector(const Eigen::VectorXd& v, int n) {
+  return v.size() == n && v.allFinite();
+}
+
+void run_viscous(const AnalyzeArgs& args) {
+  const SectionArgs& a = args.section;
+  const double re = args.flow.reynolds.front();
+  const viscous::ViscousOptions options = viscous_options(a, args.flow, re);
+  if (!args.surface_csv.empty()) require_writable(args.surface_csv);
+  Section section;
+  const Points nodes = section_nodes(a, section);
+  const viscous::ViscousSolver solver(nodes, options);
+  const viscous::ViscousResult r =
+      args.alpha_deg ? solver.solve_alpha(*args.alpha_deg) : solver.solve_cl(*args.cl);
+
+  if (!args.surface_csv.empty()) {
+    const int n = static_cast<int>(nodes.rows());
+    bool finite = true;
+    for (const Eigen::VectorXd* v :
+         {&r.ue, &r.cp, &r.theta, &r.dstar, &r.shape, &r.cf, &r.amplification}) {
+      finite = finite && finite_vector(*v, n);
+    }
+    if (finite) {
+      write_file_atomically(args.surface_csv, viscous_surface_table(solver.inviscid(), r));
+    } else {
+      // Not an input error: the solve has no usable boundary layer to tabulate.
+      std::cerr << "fulmar: warning: no finite boundary layer to write; " << args.surface_csv
+                << " not written\n";
+    }
+  }
+  if (!r.converged) {
+    std::cerr << "fulmar: warning: the viscous solution did not converge (" << r.reason
+              << "); the numbers are the last iterate, not a solution\n";
+  }
+  if (args.json) {
+    nlohmann::json j = r.to_json();
+    j["shape"] = section.name;
+    j["analysis"] = "viscous";
+    j["panels"] = a.panels;
+    j["re"] = re;
+    j["mach"] = a.mach;
+    j["ncrit"] = options.n_crit;
+    j["trip_upper"] = options.trip_upper;
+    j["trip_lower"] = options.trip_lower;
+    if (args.cl) j["cl_target"] = *args.cl;
+    std::cout << j.dump(2) << "\n";
+    return;
+  }
+  std::printf("%s: viscous, Re %.4g, Mach %.3g, N_crit %.3g, %d panels\n", section.name.c_str(), re,
+              a.mach, options.n_crit, a.panels);
+  if (options.trip_upper < 1.0 || options.trip_lower < 1.0)
+    std::printf("  trips at x/c %.4g (upper), %.4g (lower)\n", options.trip_upper,
+                options.trip_lower);
+  std::printf("  alpha   %9.4f deg\n", r.alpha);
+  std::printf("  cl      %9.5f\n", r.cl);
+  std::printf("  cd      %9.6f   (friction %.6f, pressure %.6f)\n", r.cd, r.cd_friction,
+              r.cd_pressure);
+  std::printf("  cm c/4  %9.5f\n", r.cm);
+  std::printf("  transition x/c: upper %.4f, lower %.4f\n", r.transition_upper, r.transition_lower);
+  std::printf("  %s: %s\n", r.converged ? "converged" : "NOT converged", r.reason.c_str());
+}
+
 void run_analyze(const AnalyzeArgs& a) {
   if (!a.alpha_deg && !a.cl)
     throw InputError("analyze: give the angle (--alpha DEG) or a target lift (--cl CL)");
-  if (!a.inviscid) {
+  if (a.section.inviscid) {
+    run_inviscid(a);
+    return;
+  }
+  if (a.flow.reynolds.empty()) {
     throw InputError(
         "analyze: the viscous analysis needs --re RE (the Reynolds number); for potential flow "
         "alone add --inviscid");
   }
-  run_inviscid(a);
+  run_viscous(a);
 }
 
 }  // namespace
@@ -125,30 +228,35 @@ void add_analyze_command(CLI::App& app) {
   CLI::App* cmd = app.add_subcommand(
       "analyze",
       "Flow about one section at one angle of attack (--alpha) or at the angle that gives a "
-      "lift coefficient (--cl). With --inviscid: potential flow by a linear-vorticity panel "
-      "method, Karman-Tsien corrected with --mach.\n\n" +
+      "lift coefficient (--cl): viscous with --re, potential flow with --inviscid.\n\n"
+      "Viscous (--re): a panel method strongly coupled to integral boundary layers on both "
+      "surfaces and the wake, e^N transition (--ncrit) or forced transition (--trip-upper, "
+      "--trip-lower), drag from the wake by Squire-Young, Karman-Tsien loads with --mach (to "
+      "0.7). JSON keys: alpha, cl, cd, cm, cd_friction, cd_pressure, transition_upper, "
+      "transition_lower (x/c), converged, status, reason, residual, iterations, re, mach, ncrit. "
+      "A solution that does not converge is a result, not an error: the exit code is 0, "
+      "converged is false, status and reason say why, and a warning goes to stderr; its numbers "
+      "are the last iterate and must not be used.\n\n"
+      "Inviscid (--inviscid): a linear-vorticity panel method, Karman-Tsien corrected with "
+      "--mach (to 0.8).\n\n" +
           std::string(kCaution));
-  cmd->add_option("SHAPE", args->shape,
-                  "NACA designation (naca2412), CST JSON file, or coordinate file")
-      ->required();
+  add_section_options(cmd, args->section);
   auto* alpha = cmd->add_option("--alpha", args->alpha_deg, "Angle of attack, degrees")
                     ->check(within(-90.0, 90.0));
   auto* cl = cmd->add_option("--cl", args->cl, "Target lift coefficient (solves for the angle)")
                  ->check(within(-10.0, 10.0));
   alpha->excludes(cl);
   cl->excludes(alpha);
-  cmd->add_flag("--inviscid", args->inviscid, "Potential flow only (no boundary layer)");
-  cmd->add_option("--mach", args->mach, "Free-stream Mach number for the Karman-Tsien correction")
-      ->check(within(0.0, 0.8));
-  cmd->add_option("--panels", args->panels, "Number of panels (20 to 4000, default 160)")
-      ->check(CLI::Range(20, 4000));
+  add_viscous_options(cmd, args->flow, false);
   cmd->add_option("--surface", args->surface_csv,
-                  "Write the surface distribution to this CSV file (columns node, surface, x, y, "
-                  "s, cp, ue; ue = edge velocity / free stream, positive toward the trailing "
-                  "edge on each surface)");
+                  "Write the surface distribution to this CSV file: node, surface, x, y, s, cp, "
+                  "ue (edge velocity / free stream, positive toward the trailing edge on each "
+                  "surface); viscous adds theta, dstar (per chord), shape_factor (H), cf, regime "
+                  "(laminar/turbulent), n_or_sqrt_ctau (N where laminar, sqrt(Ctau) where "
+                  "turbulent)");
   cmd->add_flag("--json", args->json, "Print one JSON object");
   cmd->callback([args, cmd]() {
-    args->mach_given = cmd->count("--mach") > 0;
+    args->section.mach_given = cmd->count("--mach") > 0;
     run_analyze(*args);
   });
 }

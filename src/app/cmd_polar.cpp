@@ -1,32 +1,36 @@
 // `fulmar polar`: the flow about one section over a range of angles of attack.
+#include <algorithm>
+#include <atomic>
+#include <chrono>
 #include <cmath>
 #include <cstdio>
+#include <exception>
 #include <iostream>
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <numbers>
 #include <sstream>
 #include <string>
+#include <thread>
 #include <vector>
 
 #include "app/cli_checks.h"
 #include "app/commands.h"
+#include "app/section_options.h"
 #include "common/atomic_file.h"
 #include "common/error.h"
 #include "geometry/panelling.h"
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
+#include "solvers/viscous/polar.h"
 
 namespace fulmar::app {
 namespace {
 
 struct PolarArgs {
-  std::string shape;
+  SectionArgs section;
+  ViscousArgs flow;
   std::string alpha_range;
-  bool inviscid = false;
-  double mach = 0.0;
-  bool mach_given = false;
-  int panels = 160;
   std::string output_csv;
   bool json = false;
 };
@@ -65,20 +69,15 @@ std::vector<double> parse_alpha_range(const std::string& text) {
   return out;
 }
 
-void run_polar(const PolarArgs& a) {
-  const std::vector<double> alphas = parse_alpha_range(a.alpha_range);
-  if (!a.inviscid) {
-    throw InputError(
-        "polar: the viscous analysis needs --re RE (the Reynolds number); for potential flow "
-        "alone add --inviscid");
-  }
-  if (!a.output_csv.empty()) require_writable(a.output_csv);
-  const Section section = load_shape(a.shape);
-  PanellingOptions panelling;
-  panelling.panels = a.panels;
+void run_inviscid(const PolarArgs& args) {
+  const SectionArgs& a = args.section;
+  const std::vector<double> alphas = parse_alpha_range(args.alpha_range);
+  if (!args.output_csv.empty()) require_writable(args.output_csv);
+  Section section;
+  const Points nodes = section_nodes(a, section);
   InviscidOptions options;
   options.mach = a.mach;
-  const InviscidSolver solver(panel_nodes(section, panelling), options);
+  const InviscidSolver solver(nodes, options);
 
   nlohmann::json points = nlohmann::json::array();
   std::ostringstream csv;
@@ -100,9 +99,9 @@ void run_polar(const PolarArgs& a) {
     csv << '\n';
     points.push_back(p);
   }
-  if (!a.output_csv.empty()) write_file_atomically(a.output_csv, csv.str());
+  if (!args.output_csv.empty()) write_file_atomically(args.output_csv, csv.str());
 
-  if (a.json) {
+  if (args.json) {
     nlohmann::json j{{"shape", section.name},
                      {"analysis", "inviscid"},
                      {"panels", a.panels},
@@ -122,32 +121,213 @@ void run_polar(const PolarArgs& a) {
   }
 }
 
+// FROM:TO:STEP for a viscous polar: the angles are marched outward from zero lift and returned
+// increasing, so FROM <= TO and STEP > 0; within +-60 deg (the viscous solver's range).
+viscous::PolarOptions viscous_alpha_range(const std::string& text) {
+  const std::vector<double> alphas = parse_alpha_range(text);  // the shared syntax checks
+  std::vector<double> v;
+  std::stringstream ss(text);
+  std::string part;
+  while (std::getline(ss, part, ':')) v.push_back(std::stod(part));
+  viscous::PolarOptions o;
+  o.alpha_from = v[0];
+  o.alpha_to = v[1];
+  o.alpha_step = v[2];
+  auto bad = [&](const std::string& rule) {
+    return InputError("--alpha '" + text + "': " + rule +
+                      " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
+  };
+  if (o.alpha_from > o.alpha_to) throw bad("FROM must not exceed TO for a viscous polar");
+  if (o.alpha_step <= 0.0) throw bad("STEP must be positive for a viscous polar");
+  if (std::abs(o.alpha_from) > 60.0 || std::abs(o.alpha_to) > 60.0)
+    throw bad("angles must be within -60..60 for a viscous polar");
+  if (alphas.size() > 2001) throw bad("more than 2001 angles for a viscous polar");
+  o.Validate();
+  return o;
+}
+
+// One Reynolds number's polar and what it took.
+struct ReynoldsPolar {
+  viscous::ViscousOptions options;
+  viscous::Polar polar;
+  double seconds = 0.0;
+};
+
+nlohmann::json polar_json(const ReynoldsPolar& p) {
+  nlohmann::json points = nlohmann::json::array();
+  for (const viscous::ViscousResult& r : p.polar.points) points.push_back(viscous_point_json(r));
+  return {{"re", p.options.reynolds},
+          {"mach", p.options.mach},
+          {"ncrit", p.options.n_crit},
+          {"trip_upper", p.options.trip_upper},
+          {"trip_lower", p.options.trip_lower},
+          {"solves", p.polar.solves},
+          {"points", points},
+          {"summary", p.polar.summary.to_json()}};
+}
+
+// The CSV: one row per point (all Reynolds numbers, in the order given); numbers of points with
+// converged = 0 are the last iterate, not a solution.
+std::string polar_csv(const std::vector<ReynoldsPolar>& polars) {
+  std::ostringstream csv;
+  csv.precision(10);
+  csv << "re,mach,alpha,cl,cd,cd_friction,cd_pressure,cm,transition_upper,transition_lower,"
+         "converged,iterations\n";
+  for (const ReynoldsPolar& p : polars) {
+    for (const viscous::ViscousResult& r : p.polar.points) {
+      csv << p.options.reynolds << ',' << p.options.mach << ',' << r.alpha << ',' << r.cl << ','
+          << r.cd << ',' << r.cd_friction << ',' << r.cd_pressure << ',' << r.cm << ','
+          << r.transition_upper << ',' << r.transition_lower << ',' << (r.converged ? 1 : 0) << ','
+          << r.iterations << '\n';
+    }
+  }
+  return csv.str();
+}
+
+std::string summary_value(const nlohmann::json& v, const char* format) {
+  if (v.is_null()) return "-";
+  char buf[64];
+  std::snprintf(buf, sizeof buf, format, v.get<double>());
+  return buf;
+}
+
+void run_viscous(const PolarArgs& args) {
+  const SectionArgs& a = args.section;
+  const viscous::PolarOptions polar_options = viscous_alpha_range(args.alpha_range);
+  std::vector<ReynoldsPolar> polars;
+  for (double re : args.flow.reynolds) polars.push_back({viscous_options(a, args.flow, re), {}, 0});
+  if (!args.output_csv.empty()) require_writable(args.output_csv);
+  Section section;
+  const Points nodes = section_nodes(a, section);
+
+  // One solver and one thread per Reynolds number, at most as many threads as cores.
+  const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+  const std::size_t workers = std::min<std::size_t>(polars.size(), cores);
+  std::atomic<std::size_t> next{0};
+  std::vector<std::exception_ptr> errors(polars.size());
+  auto work = [&]() {
+    for (std::size_t i = next++; i < polars.size(); i = next++) {
+      try {
+        const auto t0 = std::chrono::steady_clock::now();
+        const viscous::ViscousSolver solver(nodes, polars[i].options);
+        polars[i].polar = viscous::sweep_polar(solver, polar_options);
+        polars[i].seconds =
+            std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+      } catch (...) {
+        errors[i] = std::current_exception();
+      }
+    }
+  };
+  std::vector<std::thread> threads;
+  for (std::size_t t = 1; t < workers; ++t) threads.emplace_back(work);
+  work();
+  for (std::thread& t : threads) t.join();
+  for (const std::exception_ptr& e : errors)
+    if (e) std::rethrow_exception(e);
+
+  for (const ReynoldsPolar& p : polars) {
+    int failed = 0;
+    for (const viscous::ViscousResult& r : p.polar.points) failed += !r.converged;
+    if (failed > 0) {
+      std::cerr << "fulmar: warning: Re " << p.options.reynolds << ": " << failed << " of "
+                << p.polar.points.size()
+                << " angles did not converge (converged false; their numbers are not a "
+                   "solution)\n";
+    }
+  }
+  if (!args.output_csv.empty()) write_file_atomically(args.output_csv, polar_csv(polars));
+
+  if (args.json) {
+    nlohmann::json list = nlohmann::json::array();
+    for (const ReynoldsPolar& p : polars) list.push_back(polar_json(p));
+    nlohmann::json j{
+        {"shape", section.name}, {"analysis", "viscous"}, {"panels", a.panels}, {"polars", list}};
+    if (polars.size() == 1) {
+      j["points"] = list[0]["points"];
+      j["summary"] = list[0]["summary"];
+    }
+    std::cout << j.dump(2) << "\n";
+    return;
+  }
+  for (const ReynoldsPolar& p : polars) {
+    std::printf(
+        "%s: viscous polar, Re %.4g, Mach %.3g, N_crit %.3g, %d panels (%d solves, %.1f s)\n",
+        section.name.c_str(), p.options.reynolds, p.options.mach, p.options.n_crit, a.panels,
+        p.polar.solves, p.seconds);
+    std::printf("  %8s %9s %9s %9s %9s %7s %7s  %s\n", "alpha", "cl", "cd", "cd_fric", "cm",
+                "xtr_up", "xtr_lo", "converged");
+    for (const viscous::ViscousResult& r : p.polar.points) {
+      std::printf("  %8.3f %9.5f %9.6f %9.6f %9.5f %7.4f %7.4f  %s\n", r.alpha, r.cl, r.cd,
+                  r.cd_friction, r.cm, r.transition_upper, r.transition_lower,
+                  r.converged ? "yes" : "NO");
+    }
+    const nlohmann::json s = p.polar.summary.to_json();
+    std::printf("  cl_max %s at alpha %s; zero lift at alpha %s, slope %s /deg, cm0 %s, x_ac %s\n",
+                summary_value(s["cl_max"], "%.4f").c_str(),
+                summary_value(s["alpha_cl_max"], "%.2f").c_str(),
+                summary_value(s["alpha_zero_lift"], "%.3f").c_str(),
+                summary_value(s["lift_slope_per_deg"], "%.4f").c_str(),
+                summary_value(s["cm_zero_lift"], "%.4f").c_str(),
+                summary_value(s["x_ac"], "%.4f").c_str());
+    std::printf("  cd_min %s at cl %s", summary_value(s["cd_min"], "%.6f").c_str(),
+                summary_value(s["cl_at_cd_min"], "%.4f").c_str());
+    if (!s["bucket"].is_null()) {
+      std::printf("; low-drag range cl %.3f to %.3f", s["bucket"]["cl_lower"].get<double>(),
+                  s["bucket"]["cl_upper"].get<double>());
+    }
+    std::printf("\n  note: %s\n", p.polar.summary.note.c_str());
+  }
+}
+
+void run_polar(const PolarArgs& a) {
+  if (a.section.inviscid) {
+    run_inviscid(a);
+    return;
+  }
+  if (a.flow.reynolds.empty()) {
+    throw InputError(
+        "polar: the viscous analysis needs --re RE (the Reynolds number); for potential flow "
+        "alone add --inviscid");
+  }
+  run_viscous(a);
+}
+
 }  // namespace
 
 void add_polar_command(CLI::App& app) {
   auto args = std::make_shared<PolarArgs>();
   CLI::App* cmd = app.add_subcommand(
       "polar",
-      "Lift and moment of one section over a range of angles of attack. With --inviscid: "
-      "potential flow by a linear-vorticity panel method (one factorisation for all angles), "
-      "Karman-Tsien corrected with --mach.\n\n" +
+      "Lift, drag and moment of one section over a range of angles of attack: viscous with "
+      "--re (one polar per Reynolds number), potential flow with --inviscid.\n\n"
+      "Viscous (--re): each angle is solved by the coupled panel / boundary-layer method, "
+      "marching outward from the zero-lift angle with each solution started from its converged "
+      "neighbour (retried cold, then in smaller steps, when that fails). Several --re values "
+      "run in parallel, one thread each. JSON: {\"polars\": [{re, mach, ncrit, points, "
+      "summary}, ...]}, and with one --re also points and summary at the top level; each point "
+      "has the keys of `fulmar analyze --json`. summary: cl_max and alpha_cl_max (refined to "
+      "0.05 deg when cl falls after the maximum; a lower bound when the solutions stop "
+      "converging after it; null when cl still rises at the end of the range), alpha_zero_lift, "
+      "lift_slope_per_deg and x_ac (least squares over alpha_zero_lift -2 to +6 deg), "
+      "cm_zero_lift, cd_min and cl_at_cd_min, bucket (the cl range where cd is within 10 % of "
+      "cd_min), note. Angles that do not converge are kept with converged false and a warning "
+      "on stderr (exit code 0); their numbers are not a solution.\n\n"
+      "Inviscid (--inviscid): a linear-vorticity panel method (one factorisation for all "
+      "angles), Karman-Tsien corrected with --mach.\n\n" +
           std::string(kCaution));
-  cmd->add_option("SHAPE", args->shape,
-                  "NACA designation (naca2412), CST JSON file, or coordinate file")
+  add_section_options(cmd, args->section);
+  cmd->add_option("--alpha", args->alpha_range,
+                  "Angles FROM:TO:STEP in degrees, e.g. -4:12:1 (viscous: FROM <= TO, STEP > 0)")
       ->required();
-  cmd->add_option("--alpha", args->alpha_range, "Angles FROM:TO:STEP in degrees, e.g. -4:12:1")
-      ->required();
-  cmd->add_flag("--inviscid", args->inviscid, "Potential flow only (no boundary layer)");
-  cmd->add_option("--mach", args->mach, "Free-stream Mach number for the Karman-Tsien correction")
-      ->check(within(0.0, 0.8));
-  cmd->add_option("--panels", args->panels, "Number of panels (20 to 4000, default 160)")
-      ->check(CLI::Range(20, 4000));
+  add_viscous_options(cmd, args->flow, true);
   cmd->add_option("-o,--output", args->output_csv,
-                  "Write the polar to this CSV file (columns alpha, cl, cm, cp_min, converged, "
-                  "and critical_exceeded with --mach)");
-  cmd->add_flag("--json", args->json, "Print one JSON object with the list 'points'");
+                  "Write the polar to this CSV file. Viscous columns: re, mach, alpha, cl, cd, "
+                  "cd_friction, cd_pressure, cm, transition_upper, transition_lower, converged, "
+                  "iterations (one row per point and Reynolds number). Inviscid: alpha, cl, cm, "
+                  "cp_min, converged, and critical_exceeded with --mach");
+  cmd->add_flag("--json", args->json, "Print one JSON object");
   cmd->callback([args, cmd]() {
-    args->mach_given = cmd->count("--mach") > 0;
+    args->section.mach_given = cmd->count("--mach") > 0;
     run_polar(*args);
   });
 }
