@@ -1,7 +1,6 @@
 #pragma once
-// The production SectionEvaluator: the viscous-inviscid analysis of solvers/viscous. Until that
-// solver offers target-cl solves, polars and cl_max, this build has no production evaluator and
-// `fulmar optimize` says so instead of inventing drag numbers.
+// The production SectionEvaluator: the viscous-inviscid analysis of solvers/viscous (target-cl
+// solves by secant iteration on alpha, polars with warm starts, cl_max by an angle march).
 #include <memory>
 #include <string>
 

@@ -7,6 +7,10 @@
 namespace fulmar::viscous {
 namespace {
 
+// How far (as a fraction of the interval) the transition point may leave its interval in the
+// Newton iterations (see residuals_of).
+constexpr double kTransitionOvershoot = 0.1;
+
 std::array<Dual, 4> inputs(const StationState& s, int offset) {
   return {Dual::input(s.c, offset), Dual::input(s.theta, offset + 1),
           Dual::input(s.dstar, offset + 2), Dual::input(s.ue, offset + 3)};
@@ -33,8 +37,12 @@ std::array<Dual, 3> residuals_of(const IntervalSpec& spec, const Dual& x1, const
     case IntervalType::kTransition: {
       Dual w = transition_fraction(x1, x2, a.data(), flow);
       if (spec.trip_fraction < w.v) w = Dual(spec.trip_fraction);
-      if (w.v < 0.0) w = Dual(0.0);
-      if (w.v > 1.0) w = Dual(1.0);
+      // Beyond the interval the residuals continue smoothly (extrapolated states), so that a
+      // Newton step that carries the transition point into a neighbouring interval sees no kink;
+      // the transition interval is reassigned before the next step, and in a converged solution
+      // w lies in [0, 1]. Far outside, the continuation is not meaningful: clamp.
+      if (w.v < -kTransitionOvershoot) w = Dual(-kTransitionOvershoot);
+      if (w.v > 1.0 + kTransitionOvershoot) w = Dual(1.0 + kTransitionOvershoot);
       if (fraction_out) *fraction_out = w.v;
       return transition_residuals(x1, x2, a.data(), b.data(), w, flow);
     }

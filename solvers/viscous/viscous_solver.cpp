@@ -5,6 +5,7 @@
 #include <cmath>
 #include <numbers>
 #include <sstream>
+#include <tuple>
 
 #include "common/error.h"
 
@@ -13,6 +14,10 @@ namespace fulmar::viscous {
 namespace {
 
 constexpr double kDeg = std::numbers::pi / 180.0;
+constexpr int kColdStartReMarch = 0;
+constexpr bool kLineSearch = false;
+constexpr bool kLocalLimits = false;
+constexpr double kMinRelaxation = 0.2;
 
 void require(bool ok, const std::string& field, double value, const std::string& rule) {
   if (ok) return;
@@ -114,6 +119,17 @@ nlohmann::json ViscousResult::to_json() const {
   j["residual"] = residual;
   j["iterations"] = iterations;
   j["residual_history"] = residual_history;
+  nlohmann::json h = nlohmann::json::array();
+  for (const NewtonIteration& it : history)
+    h.push_back({{"residual", it.residual},
+                 {"worst_station", it.worst_station},
+                 {"worst_equation", it.worst_equation},
+                 {"stagnation_node", it.stagnation_node},
+                 {"transition_interval_upper", it.transition_upper},
+                 {"transition_interval_lower", it.transition_lower},
+                 {"relaxation", it.relaxation},
+                 {"limited_by", it.limited_by}});
+  j["history"] = h;
   return j;
 }
 
@@ -168,9 +184,50 @@ class CoupledSystem {
     lay_.d = lay_.sign.asDiagonal() * model_.mass_influence * lay_.sign.asDiagonal();
   }
 
-  // Cold start: march both surfaces and the wake on the inviscid edge velocity.
-  void cold_start() {
-    set_stagnation(stagnation_node(model_.edge_velocity, lay_.n_surface, le_));
+  // Cold start: march both surfaces and the wake on the inviscid edge velocity; then march
+  // again on the inviscid surface speed at the lower angle that has the circulation of the
+  // marched layer's viscous flow. The displacement lowers the circulation and moves the
+  // stagnation point; a start from the inviscid flow at the geometric angle would leave Newton to
+  // find that through the most sensitive stations, those next to the stagnation point.
+  void cold_start(double alpha_rad) {
+    cold_march(model_.edge_velocity);
+    if (kColdStartReMarch == 0) return;
+    const Eigen::VectorXd q_viscous =
+        model_.edge_velocity + model_.mass_influence * lay_.sign.cwiseProduct(mu_);
+    const int ns = lay_.n_surface;
+    auto circulation = [&](const Eigen::VectorXd& q) {
+      double g = 0.0;
+      for (int i = 0; i + 1 < ns; ++i) g += 0.5 * (q(i) + q(i + 1)) * (lay_.s(i + 1) - lay_.s(i));
+      return g;
+    };
+    const double target = circulation(q_viscous);
+    InviscidResult r;
+    double a0 = alpha_rad, g0 = circulation(model_.edge_velocity);
+    double a1 = alpha_rad - 0.02;
+    inv_.solve(a1, r);
+    double g1 = circulation(r.ue);
+    for (int k = 0; k < 4 && std::abs(g1 - g0) > 1e-12; ++k) {
+      const double a2 = a1 + (target - g1) * (a1 - a0) / (g1 - g0);
+      a0 = a1;
+      g0 = g1;
+      a1 = std::clamp(a2, alpha_rad - 0.3, alpha_rad + 0.3);
+      inv_.solve(a1, r);
+      g1 = circulation(r.ue);
+    }
+    Eigen::VectorXd q = model_.edge_velocity;
+    q.head(ns) = r.ue;
+    cold_march(q);
+  }
+
+  // One cold-start march on the node-sense speeds q (#stations).
+  void cold_march(const Eigen::VectorXd& q) {
+    set_stagnation(stagnation_node(q, lay_.n_surface, le_));
+    cold_ue_ = lay_.sign.cwiseProduct(q);
+    march_on_cold_speed();
+  }
+
+  // The marches of cold_start on the boundary-layer-sense speeds cold_ue_.
+  void march_on_cold_speed() {
     for (int side = 0; side < 2; ++side) {
       const std::vector<int> idx = side_nodes(side);
       const int m = static_cast<int>(idx.size());
@@ -178,7 +235,7 @@ class CoupledSystem {
       const double xi0 = first_xi(side);
       for (int p = 0; p < m; ++p) {
         x(p) = xi0 + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
-        ue(p) = p == 0 ? first_speed(side) : std::max(lay_.ue_inviscid(idx[p]), 1e-3);
+        ue(p) = p == 0 ? first_speed(side) : std::max(cold_ue_(idx[p]), 1e-3);
       }
       // The inviscid speed falls steeply over the last panels towards the trailing-edge
       // stagnation of a finite-angle edge, which the displacement effect removes; a march on it
@@ -205,7 +262,8 @@ class CoupledSystem {
       const int i = lay_.n_surface + j;
       x(j) = lay_.s(i);
       // The same in the near wake: no dip below the trailing-edge speed.
-      ue(j) = std::max(lay_.ue_inviscid(i), 0.5 * (cold_ue_(0) + cold_ue_(lay_.n_surface - 1)));
+      ue(j) = std::max(cold_ue_(i), 0.5 * (cold_ue_(0) + cold_ue_(lay_.n_surface - 1)));
+      cold_ue_(i) = ue(j);
       gap(j) = lay_.gap(i);
     }
     StationState first = merged;
@@ -296,7 +354,7 @@ class CoupledSystem {
   };
   StagnationFraction stagnation_fraction(int side) const {
     const int k = lay_.stag;
-    const Eigen::VectorXd& u = ue_valid_ ? ue_ : lay_.ue_inviscid;
+    const Eigen::VectorXd& u = ue_valid_ ? ue_ : cold_ue_;
     const double a = u(k), b = u(k + 1);
     StagnationFraction f;
     f.sum = std::max(a + b, 1e-10);
@@ -423,47 +481,131 @@ class CoupledSystem {
     return transition_ctau_root(k);
   }
 
-  // Decides laminar/turbulent per station from the current state (amplification, trips).
+  // Decides laminar/turbulent per station from the current state (amplification, trips). The
+  // transition interval moves by at most kMaxTransitionMove intervals per Newton iteration: a
+  // transient state in early iterations can put the e^N point far from where it settles, and a
+  // large jump of the laminar/turbulent split throws Newton far off. A solve is converged only
+  // when that limit is not active (transition_limited() false).
+  static constexpr int kMaxTransitionMove = 2;
+  static constexpr double kTransitionHysteresis = 0.25;
   void assign_transition() {
+    transition_limited_ = false;
+    bool moved_mass = false;
     for (int side = 0; side < 2; ++side) {
       const std::vector<int> idx = side_nodes(side);
-      bool turbulent = false;
-      transition_interval_[side] = -1;
-      for (std::size_t p = 1; p < idx.size(); ++p) {
+      const int m = static_cast<int>(idx.size());
+      // Amplification along the side: the unknowns on laminar stations, continued by the
+      // explicit rule over stations that are turbulent now.
+      // Over turbulent stations the layer's own state (H ~ 1.4) says nothing about laminar
+      // amplification: the rate of the last laminar station is carried on instead.
+      std::vector<double> n_est(static_cast<std::size_t>(m), 0.0);
+      int natural = m;  // first turbulent BL position (m: laminar to the trailing edge)
+      double last_rate = 0.0;
+      for (int p = 1; p < m; ++p) {
         const int i1 = idx[p - 1], i2 = idx[p];
-        if (!turbulent) {
-          const double trip = trip_fraction(side, i1, i2);
-          const StationState s1 = station(i1);
-          const double x1 = xi_of(side, idx, static_cast<int>(p - 1));
-          const double x2 = xi_of(side, idx, static_cast<int>(p));
-          const std::array<double, 4> a{s1.c, s1.theta, s1.dstar, s1.ue};
-          const double w = transition_fraction(x1, x2, a.data(), flow_);
-          if (w <= 1.0 || trip <= 1.0) {
-            turbulent = true;
-            transition_interval_[side] = static_cast<int>(p);
-            if (kinds_[i2] == LayerKind::kLaminar) {
-              const StationState s2 = station(i2);
+        const bool laminar1 = kinds_[i1] == LayerKind::kLaminar || p == 1;
+        const StationState s1 = station(i1);
+        const double n1 = laminar1 ? s1.c : n_est[p - 1];
+        n_est[p - 1] = n1;
+        const double x1 = xi_of(side, idx, p - 1), x2 = xi_of(side, idx, p);
+        double w = 2.0;
+        if (laminar1) {
+          const std::array<double, 4> a{n1, s1.theta, s1.dstar, s1.ue};
+          w = transition_fraction(x1, x2, a.data(), flow_);
+          const Closure<double> k =
+              close_station(LayerKind::kLaminar, n1, s1.theta, s1.dstar, s1.ue, flow_);
+          last_rate = amplification_rate(k.hk, s1.theta, k.re_theta);
+        } else if (last_rate * (x2 - x1) > 1e-12) {
+          w = (flow_.n_crit - n1) / (last_rate * (x2 - x1));
+        }
+        if (w <= 1.0 || trip_fraction(side, i1, i2) <= 1.0) {
+          natural = p;
+          break;
+        }
+        n_est[p] = kinds_[i2] == LayerKind::kLaminar ? c_(i2) : n1 + (x2 - x1) * last_rate;
+      }
+      int first = natural;
+      // Hysteresis: the transition stays in its interval while the e^N point lies within
+      // kTransitionHysteresis of it (the interval residuals continue smoothly beyond it), so
+      // that it cannot flip between two intervals from one iteration to the next.
+      const int q = previous_transition_[side];
+      bool keep = false;
+      if (q >= 1 && q < m && natural != q && kinds_[idx[q - 1]] == LayerKind::kLaminar &&
+          trip_fraction(side, idx[q - 1], idx[q]) > 1.0) {
+        bool tripped_before = false;
+        for (int p = 1; p < q; ++p) tripped_before |= trip_fraction(side, idx[p - 1], idx[p]) <= 1.0;
+        const StationState s1 = station(idx[q - 1]);
+        const std::array<double, 4> a{s1.c, s1.theta, s1.dstar, s1.ue};
+        const double wq =
+            transition_fraction(xi_of(side, idx, q - 1), xi_of(side, idx, q), a.data(), flow_);
+        keep = !tripped_before && wq >= -kTransitionHysteresis && wq <= 1.0 + kTransitionHysteresis;
+      }
+      if (keep) first = q;
+      else if (previous_transition_[side] >= 1)
+        first = std::clamp(natural, previous_transition_[side] - kMaxTransitionMove,
+                           previous_transition_[side] + kMaxTransitionMove);
+      first = std::clamp(first, 1, m);
+      if (first != natural && !keep) transition_limited_ = true;
+      previous_transition_[side] = first;
+      transition_interval_[side] = first < m ? first : -1;
+      kinds_[idx[0]] = LayerKind::kLaminar;
+      double h_laminar = 2.6;  // H of the last laminar station (a Blasius-like value before)
+      for (int p = 1; p < m; ++p) {
+        const int i = idx[p];
+        if (p < first) {
+          if (kinds_[i] != LayerKind::kLaminar) {
+            // A turbulent station that turns laminar: N from the estimate, and the laminar
+            // shape factor of its upstream neighbour (a turbulent H ~ 1.4 would stop the
+            // amplification and push transition ever further downstream).
+            c_(i) = std::max(n_est[p], 0.0);
+            mu_(i) = dstar_speed(i) * (h_laminar * th_(i) + lay_.gap(i));
+            moved_mass = true;
+          } else {
+            h_laminar = std::clamp(station(i).dstar / th_(i), 2.0, 4.0);
+          }
+          kinds_[i] = LayerKind::kLaminar;
+        } else {
+          if (kinds_[i] == LayerKind::kLaminar) {
+            // A laminar station that turns turbulent: the shape factor and shear stress of the
+            // nearest turbulent station downstream (a laminar H ~ 2.6 behind transition would
+            // send the turbulent equations after a spurious low-H root).
+            int d = -1;
+            for (int pp = p + 1; pp < m && d < 0; ++pp)
+              if (kinds_[idx[pp]] != LayerKind::kLaminar) d = idx[pp];
+            if (d >= 0) {
+              const double h = std::clamp((station(d).dstar - lay_.gap(d)) / th_(d), 1.3, 2.2);
+              mu_(i) = dstar_speed(i) * (h * th_(i) + lay_.gap(i));
+              c_(i) = c_(d);
+              moved_mass = true;
+            } else {
+              const StationState s2 = station(i);
               const Closure<double> k =
                   close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow_);
-              c_(i2) = transition_ctau_root(k);
+              c_(i) = transition_ctau_root(k);
             }
-            kinds_[i2] = LayerKind::kTurbulent;
-            continue;
           }
-          if (kinds_[i2] != LayerKind::kLaminar) {
-            // Back to laminar: N from the explicit amplification rule.
-            const Closure<double> k =
-                close_station(LayerKind::kLaminar, s1.c, s1.theta, s1.dstar, s1.ue, flow_);
-            c_(i2) = s1.c + (x2 - x1) * amplification_rate(k.hk, s1.theta, k.re_theta);
-          }
-          kinds_[i2] = LayerKind::kLaminar;
-        } else {
-          kinds_[i2] = LayerKind::kTurbulent;
+          kinds_[i] = LayerKind::kTurbulent;
         }
       }
-      kinds_[idx[0]] = LayerKind::kLaminar;
+    }
+    if (moved_mass) update_edge_velocity();
+  }
+
+  // The transition intervals implied by the layer kinds (after a start).
+  void take_transition_from_kinds() {
+    for (int side = 0; side < 2; ++side) {
+      const std::vector<int> idx = side_nodes(side);
+      const int m = static_cast<int>(idx.size());
+      int first = m;
+      for (int p = 1; p < m; ++p)
+        if (kinds_[idx[p]] != LayerKind::kLaminar) {
+          first = p;
+          break;
+        }
+      previous_transition_[side] = first;
     }
   }
+  bool transition_limited() const { return transition_limited_; }
 
   double xi_of(int side, const std::vector<int>& idx, int p) const {
     return first_xi(side) + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
@@ -610,17 +752,61 @@ class CoupledSystem {
     if (!step_.allFinite()) return 0.0;
     const int n = lay_.n;
     double rlx = 1.0;
-    auto limit = [&rlx](double change, double allowed) {
-      if (std::abs(change) * rlx > allowed) rlx = allowed / std::abs(change);
+    limited_by_.clear();
+    auto limit = [&](double change, double allowed, const char* what, int i) {
+      if (std::abs(change) * rlx > allowed) {
+        rlx = allowed / std::abs(change);
+        limited_by_ = std::string(what) + " at station " + std::to_string(i);
+      }
     };
     for (int i = 0; i < n; ++i) {
-      limit(step_(n + i), 0.5 * th_(i));
+      limit(step_(n + i), 0.5 * th_(i), "theta", i);
       // m relative to itself, but not below a tenth of theta (m ~ 0 at the stagnation point).
-      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 0.05 * th_(i));
+      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 0.05 * th_(i), "mass defect", i);
       if (kinds_[i] == LayerKind::kLaminar)
-        limit(step_(i), 2.0);
+        limit(step_(i), 2.0, "amplification", i);
       else
-        limit(step_(i), 0.5 * c_(i));
+        limit(step_(i), 0.5 * c_(i), "shear stress", i);
+    }
+    // The step is scaled by the worst station's limit, but not below kMinRelaxation: one
+    // station far from its solution would otherwise freeze all others; beyond that each
+    // component is clipped to its own limit (a local limiter), and every H is kept above the
+    // closures' floor (see boundary_layer.cpp) by raising that station's delta*.
+    if (kLocalLimits) {
+      if (rlx < kMinRelaxation) rlx = kMinRelaxation;
+      saved_c_ = c_;
+      saved_th_ = th_;
+      saved_mu_ = mu_;
+      std::vector<double> h_floor(static_cast<std::size_t>(n));
+      for (int i = 0; i < n; ++i)
+        h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
+      for (int i = 0; i < n; ++i) {
+        const double dth = std::clamp(rlx * step_(n + i), -0.5 * th_(i), 0.5 * th_(i));
+        const double mlim = 0.5 * std::abs(mu_(i)) + 0.05 * th_(i);
+        const double dm = std::clamp(rlx * step_(2 * n + i), -mlim, mlim);
+        const double clim = kinds_[i] == LayerKind::kLaminar ? 2.0 : 0.5 * c_(i);
+        const double dc = std::clamp(rlx * step_(i), -clim, clim);
+        th_(i) = std::max(th_(i) + dth, 1e-9);
+        mu_(i) += dm;
+        c_(i) += dc;
+        if (kinds_[i] != LayerKind::kLaminar) c_(i) = std::max(c_(i), 1e-5);
+      }
+      update_edge_velocity();
+      bool raised = false;
+      for (int i = 0; i < n; ++i) {
+        if (first_station_side(i) >= 0) continue;
+        const double u = dstar_speed(i);
+        const double h = (mu_(i) / u - lay_.gap(i)) / th_(i);
+        if (h < h_floor[i]) {
+          mu_(i) = u * (h_floor[i] * th_(i) + lay_.gap(i));
+          raised = true;
+        }
+      }
+      if (raised) {
+        update_edge_velocity();
+        if (limited_by_.empty()) limited_by_ = "shape factor floor";
+      }
+      return rlx;
     }
     // Keep every H above the closures' floor (see boundary_layer.cpp): scale the step down.
     const Eigen::VectorXd dmu = step_.segment(2 * n, n);
@@ -632,25 +818,54 @@ class CoupledSystem {
         if (i == lay_.stag || i == lay_.stag + 1) continue;
         if (u <= 0.0) {
           ok = false;
+          limited_by_ = "edge velocity sign at station " + std::to_string(i);
           break;
         }
         const double h =
             ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
         const double h0 = station(i).dstar / th_(i);
-        if (h < 0.5 * (std::min(h0, 1.05) + 1.0)) ok = false;
+        if (h < 0.5 * (std::min(h0, 1.05) + 1.0)) {
+          ok = false;
+          limited_by_ = "shape factor floor at station " + std::to_string(i);
+        }
       }
       if (ok) break;
       rlx *= 0.5;
     }
-    c_ += rlx * step_.segment(0, n);
-    th_ += rlx * step_.segment(n, n);
-    mu_ += rlx * dmu;
+    // Backtracking on the 2-norm of the residuals (the Newton direction descends on it): halve
+    // the step until the norm falls, at most 6 times; then take the best of the tries.
+    const double norm0 = res_.norm();
+    saved_c_ = c_;
+    saved_th_ = th_;
+    saved_mu_ = mu_;
+    double best_rlx = rlx, best_norm = INFINITY;
+    for (int k = 0; k < (kLineSearch ? 7 : 1); ++k) {
+      apply_step(rlx);
+      assemble();
+      const double norm = res_.allFinite() ? res_.norm() : INFINITY;
+      if (norm < best_norm) {
+        best_norm = norm;
+        best_rlx = rlx;
+      }
+      if (norm < (1.0 - 1e-4 * rlx) * norm0) break;
+      if (k == 0 && limited_by_.empty()) limited_by_ = "residual norm";
+      rlx *= 0.5;
+    }
+    if (best_rlx != rlx) apply_step(best_rlx);
+    return best_rlx;
+  }
+
+  // State = saved state + rlx * step, with the positivity floors.
+  void apply_step(double rlx) {
+    const int n = lay_.n;
+    c_ = saved_c_ + rlx * step_.segment(0, n);
+    th_ = saved_th_ + rlx * step_.segment(n, n);
+    mu_ = saved_mu_ + rlx * step_.segment(2 * n, n);
     for (int i = 0; i < n; ++i) {
       th_(i) = std::max(th_(i), 1e-9);
       if (kinds_[i] != LayerKind::kLaminar) c_(i) = std::max(c_(i), 1e-5);
     }
     update_edge_velocity();
-    return rlx;
   }
 
   // The Jacobian of assemble() by central differences (kinds and transition intervals held),
@@ -680,6 +895,13 @@ class CoupledSystem {
   }
   const Eigen::MatrixXd& jacobian() const { return jac_; }
 
+  // Where the largest residual is: (station, equation).
+  std::pair<int, int> worst_residual() const {
+    Eigen::Index k = 0;
+    res_.cwiseAbs().maxCoeff(&k);
+    return {static_cast<int>(k / 3), static_cast<int>(k % 3)};
+  }
+  const std::string& limited_by() const { return limited_by_; }
   void mark_ue_valid() { ue_valid_ = true; }
   const Eigen::VectorXd& ue() const { return ue_; }
   const Eigen::VectorXd& c() const { return c_; }
@@ -704,22 +926,30 @@ class CoupledSystem {
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
   bool ue_valid_ = false;
+  std::string limited_by_;
+  Eigen::VectorXd saved_c_, saved_th_, saved_mu_;
   Eigen::VectorXd cold_ue_;  // the speeds of the cold-start marches
   int transition_interval_[2] = {-1, -1};
+  int previous_transition_[2] = {-1, -1};  // BL position of the last assignment (-1: none yet)
+  bool transition_limited_ = false;
   double transition_weight_[2] = {1.0, 1.0};
 };
 
 }  // namespace
 
-JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps) const {
+JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
+                                            const ViscousState* warm_start) const {
   const CouplingModel model = inviscid_.coupling_model(alpha_deg * kDeg);
   CoupledSystem sys(inviscid_, model, options_, flow_);
-  sys.cold_start();
+  if (!(warm_start && sys.warm_start(*warm_start))) sys.cold_start(alpha_deg * kDeg);
+  sys.take_transition_from_kinds();
   sys.update_edge_velocity();
   sys.mark_ue_valid();
   for (int it = 0; it <= newton_steps; ++it) {
-    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) {
-    }
+    bool moved = false;
+    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) moved = true;
+    // The BL positions of both sides shift with the stagnation node.
+    if (moved) sys.take_transition_from_kinds();
     sys.assign_transition();
     sys.assemble();
     if (it < newton_steps) sys.newton_step();
@@ -731,6 +961,45 @@ JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps) 
 }
 
 ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* warm_start) const {
+  const bool warm = warm_start && warm_start->valid();
+  int total = 0;
+  auto finish = [&total](ViscousResult r, const std::string& how) {
+    total += r.iterations;
+    r.iterations = total;
+    if (!how.empty()) r.reason += " (" + how + ")";
+    return r;
+  };
+  if (warm) {
+    ViscousResult r = solve_from(alpha_deg, warm_start);
+    if (r.converged || !std::isfinite(alpha_deg)) return finish(std::move(r), "warm start");
+    total += r.iterations;
+  }
+  ViscousResult cold = solve_from(alpha_deg, nullptr);
+  if (cold.converged || !warm) return finish(std::move(cold), warm ? "cold start after the warm start failed" : "");
+  total += cold.iterations;
+  // Continuation from the warm state's angle: halve the remaining step until a sub-step
+  // converges, then go on from there.
+  ViscousState from = *warm_start;
+  double step = alpha_deg - from.alpha;
+  for (int level = 0, tries = 0; level < 6 && tries < 16; ++tries) {
+    step *= 0.5;
+    const double target = from.alpha + step;
+    ViscousResult r = solve_from(target, &from);
+    total += r.iterations;
+    if (!r.converged) {
+      ++level;
+      continue;
+    }
+    from = r.state;
+    step = alpha_deg - from.alpha;
+    ViscousResult last = solve_from(alpha_deg, &from);
+    if (last.converged) return finish(std::move(last), "continuation from the warm start's angle");
+    total += last.iterations;
+  }
+  return finish(std::move(cold), "warm, cold and continuation starts all failed");
+}
+
+ViscousResult ViscousSolver::solve_from(double alpha_deg, const ViscousState* warm_start) const {
   ViscousResult res;
   res.alpha = alpha_deg;
   if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > 60.0) {
@@ -742,24 +1011,39 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
   const CouplingModel model = inviscid_.coupling_model(alpha);
   CoupledSystem sys(inviscid_, model, options_, flow_);
   bool warm = warm_start && warm_start->valid() && sys.warm_start(*warm_start);
-  if (!warm) sys.cold_start();
+  if (!warm) sys.cold_start(alpha_deg * kDeg);
+  sys.take_transition_from_kinds();
   sys.update_edge_velocity();
   sys.mark_ue_valid();
   double r = INFINITY;
   bool done = false;
   int it = 0;
   for (; it < options_.max_iterations; ++it) {
-    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) {
-    }
+    bool moved = false;
+    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) moved = true;
+    // The BL positions of both sides shift with the stagnation node.
+    if (moved) sys.take_transition_from_kinds();
     sys.assign_transition();
     r = sys.assemble();
     res.residual_history.push_back(r);
     if (!std::isfinite(r)) break;
-    if (r < options_.tolerance && it > 0) {
+    if (r < options_.tolerance && it > 0 && !sys.transition_limited()) {
       done = true;
       break;
     }
+    // Give up early when the residual has stopped falling (a fallback start is cheaper).
+    const std::size_t h = res.residual_history.size();
+    if (h > 12 && r > 1e-3 && r > 0.5 * res.residual_history[h - 7]) break;
+    NewtonIteration rec;
+    rec.residual = r;
+    std::tie(rec.worst_station, rec.worst_equation) = sys.worst_residual();
+    rec.stagnation_node = sys.layout().stag;
+    rec.transition_upper = sys.transition_interval(0);
+    rec.transition_lower = sys.transition_interval(1);
     const double rlx = sys.newton_step();
+    rec.relaxation = rlx;
+    rec.limited_by = rlx <= 0.0 ? std::string("singular Newton system") : sys.limited_by();
+    res.history.push_back(std::move(rec));
     if (rlx <= 0.0) {
       r = INFINITY;
       break;
@@ -839,6 +1123,7 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
     (side == 0 ? res.transition_upper : res.transition_lower) = xt;
   }
   // State for warm starts.
+  res.state.alpha = alpha_deg;
   res.state.stagnation_node = lay.stag;
   res.state.stations.resize(static_cast<std::size_t>(lay.n));
   res.state.kinds = sys.kinds();

@@ -46,10 +46,22 @@ SolveStatus solve_status_from_string(const std::string& text);  // throws InputE
 
 // The boundary-layer state of a solution, to warm-start a neighbouring one (same shape).
 struct ViscousState {
+  double alpha = 0.0;                  // deg, the angle this state was solved at
   int stagnation_node = -1;            // upper-side first node (the flow turns between it and +1)
   std::vector<StationState> stations;  // #nodes surface stations then the wake stations
   std::vector<LayerKind> kinds;
   bool valid() const { return stagnation_node >= 0 && !stations.empty(); }
+};
+
+// One Newton iteration of a solve, for the iteration history.
+struct NewtonIteration {
+  double residual = 0.0;    // max |residual| before the step
+  int worst_station = -1;   // where that residual is (station index; surface nodes then wake)
+  int worst_equation = -1;  // 0 amplification or lag, 1 momentum, 2 kinetic energy
+  int stagnation_node = -1;
+  int transition_upper = -1, transition_lower = -1;  // transition intervals (BL position), -1 none
+  double relaxation = 0.0;  // fraction of the Newton step taken
+  std::string limited_by;   // what limited the step ("" when the full step was taken)
 };
 
 struct ViscousResult {
@@ -59,6 +71,7 @@ struct ViscousResult {
   double residual = 0.0;  // final max |residual|
   int iterations = 0;
   std::vector<double> residual_history;  // max |residual| before each Newton step
+  std::vector<NewtonIteration> history;  // the same iterations in detail
   double alpha = 0.0;                    // deg
   double cl = 0.0, cd = 0.0, cd_friction = 0.0, cd_pressure = 0.0, cm = 0.0;
   double transition_upper = 1.0, transition_lower = 1.0;  // x/c (1: laminar to the TE)
@@ -83,7 +96,10 @@ class ViscousSolver {
 
   // Solution at `alpha_deg` (degrees). `warm_start`: a state of this shape (e.g. the previous
   // angle's result.state) or null for a cold start from a boundary-layer march on the inviscid
-  // flow. Never throws for flow reasons: non-convergence is in the result.
+  // flow. When a start does not converge the solve falls back: warm -> cold -> continuation from
+  // the warm state's angle in sub-steps (halving, at most 6 levels); `iterations` counts the
+  // Newton iterations of all attempts and `reason` says which one converged. Never throws for
+  // flow reasons: non-convergence is in the result.
   ViscousResult solve_alpha(double alpha_deg, const ViscousState* warm_start = nullptr) const;
 
   // Solution at lift coefficient `cl` (secant iteration on alpha, warm-started, to
@@ -92,8 +108,12 @@ class ViscousSolver {
 
   // For the consistency test: the Newton Jacobian (3 #stations square; columns c, theta, m per
   // station) after `newton_steps` steps from a cold start at `alpha_deg`, and the same by central
-  // differences of the residuals (layer kinds held fixed).
-  JacobianCheck jacobian_check(double alpha_deg, int newton_steps) const;
+  // differences of the residuals (layer kinds held fixed); from `warm_start` when given.
+  JacobianCheck jacobian_check(double alpha_deg, int newton_steps,
+                               const ViscousState* warm_start = nullptr) const;
+
+  // One Newton solve from one start (no fallback).
+  ViscousResult solve_from(double alpha_deg, const ViscousState* warm_start) const;
 
   const InviscidSolver& inviscid() const { return inviscid_; }
   const ViscousOptions& options() const { return options_; }
