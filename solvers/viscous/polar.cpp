@@ -379,6 +379,20 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     }
   }
 
+  // A failed angle between converged ones: the march reached it from one side only; try it
+  // once warm-started from the converged neighbour on the other side (hysteresis and the
+  // transition point's jumps make the two sides differ).
+  for (int i = 0; i < n; ++i) {
+    if (polar.points[i].converged) continue;
+    const int from_side = i > start ? i + 1 : i - 1;  // the side the march did not come from
+    if (from_side < 0 || from_side >= n || !polar.points[from_side].converged) continue;
+    ViscousResult r = call(grid[i], &polar.points[from_side].state);
+    if (r.converged) {
+      r.alpha = grid[i];
+      polar.points[i] = std::move(r);
+    }
+  }
+
   polar.summary = summarize_polar(polar.points);
   PolarSummary& s = polar.summary;
   if (s.has_cl_max && !s.cl_max_bracketed) {

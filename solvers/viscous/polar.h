@@ -95,9 +95,11 @@ using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousS
 // alpha_to and down to alpha_from, each angle warm-started from the last converged state. A
 // failed warm start is retried cold, then (when the previous grid angle converged) approached
 // by sub-steps from the last converged state, halving down to kMinSubStep. A point that still
-// fails is recorded with converged = false and the march goes on from the last converged state.
-// Then the summary (summarize_polar) and, with options.refine_cl_max, refine_cl_max.
-// Throws InputError for bad options; flow failures are in the points.
+// fails is recorded with converged = false and the march goes on from the last converged state;
+// after the march, a failed angle whose far-side neighbour converged is tried once more,
+// warm-started from that neighbour. Then the summary (summarize_polar) and, with
+// options.refine_cl_max, refine_cl_max. Throws InputError for bad options; flow failures are in the
+// points.
 Polar sweep_polar(const ViscousSolver& solver, const PolarOptions& options);
 
 // The same with any point solver; `alpha_start_deg` picks the first angle (nearest grid angle).

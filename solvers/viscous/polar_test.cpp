@@ -208,6 +208,25 @@ TEST(SweepPolar, SubStepsRecoverFailedWarmStarts) {
   }
 }
 
+// 8 deg cannot be reached from below (warm from a smaller angle, cold, or sub-steps), only
+// warm-started from above: after the march the failed angle is retried from its converged
+// neighbour on the far side (9 deg) and converges.
+TEST(SweepPolar, FailedAngleIsRetriedFromTheFarSide) {
+  StandIn s;
+  s.converges = [](double a, const ViscousState* w) {
+    if (std::abs(a - 8.0) > 0.3) return true;
+    return w != nullptr && w->stations[0].c > a;
+  };
+  PolarOptions o;
+  o.alpha_from = 5;
+  o.alpha_to = 11;
+  const Polar p = sweep_polar(s.solver(), 0.0, o);
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  ASSERT_FALSE(s.calls.empty());
+  EXPECT_DOUBLE_EQ(s.calls.back().first, 8.0);
+  EXPECT_DOUBLE_EQ(s.calls.back().second, 9.0);
+}
+
 // Stall stand-in: nothing converges above 10.4 deg. The points above fail (converged false, grid
 // angles kept), the march goes on, and cl_max is the highest sub-step reached, a lower bound.
 TEST(SweepPolar, StallBeyondAnAngleGivesAnUnbracketedMaximum) {
