@@ -111,7 +111,8 @@ nlohmann::json PolarSummary::to_json() const {
   return j;
 }
 
-PolarSummary summarize_polar(const std::vector<ViscousResult>& points) {
+PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
+                             const std::vector<ViscousResult>* extra) {
   PolarSummary s;
   const std::vector<const ViscousResult*> c = converged_by_alpha(points);
   const int n = static_cast<int>(c.size());
@@ -125,26 +126,36 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points) {
     return a;
   }();
 
-  // Maximum lift.
+  // Maximum lift, over the points and the extra samples between the first and last point.
+  std::vector<const ViscousResult*> lift = c;
+  if (extra) {
+    for (const ViscousResult& e : *extra)
+      if (e.converged && e.alpha >= c.front()->alpha - 1e-9 && e.alpha <= last_alpha_any + 1e-9)
+        lift.push_back(&e);
+    std::stable_sort(lift.begin(), lift.end(),
+                     [](auto* a, auto* b) { return a->alpha < b->alpha; });
+  }
+  const int nl = static_cast<int>(lift.size());
   int k = 0;
-  for (int i = 1; i < n; ++i)
-    if (c[i]->cl > c[k]->cl) k = i;
-  s.cl_max = c[k]->cl;
-  s.alpha_cl_max = c[k]->alpha;
-  if (k == 0 && n > 1) {
+  for (int i = 1; i < nl; ++i)
+    if (lift[i]->cl > lift[k]->cl) k = i;
+  s.cl_max = lift[k]->cl;
+  s.alpha_cl_max = lift[k]->alpha;
+  if (k == 0 && nl > 1) {
     add_note(s.note, "cl falls over the whole range: the maximum lies at or below alpha " +
-                         fmt(c[0]->alpha));
-  } else if (k < n - 1) {
+                         fmt(lift[0]->alpha));
+  } else if (k < nl - 1) {
     s.has_cl_max = true;
     s.cl_max_bracketed = true;
-    add_note(s.note, "cl_max bracketed: cl falls after alpha " + fmt(c[k]->alpha));
-  } else if (last_alpha_any > c[k]->alpha) {
+    add_note(s.note, "cl_max bracketed: cl falls after alpha " + fmt(lift[k]->alpha) + " (at " +
+                         fmt(lift[k + 1]->alpha) + ")");
+  } else if (last_alpha_any > lift[k]->alpha) {
     s.has_cl_max = true;
-    add_note(s.note, "cl_max at the last converged angle " + fmt(c[k]->alpha) +
+    add_note(s.note, "cl_max at the last converged angle " + fmt(lift[k]->alpha) +
                          ": beyond it the solutions did not converge (stall and solver failure "
                          "not told apart), so cl_max is a lower bound");
   } else {
-    add_note(s.note, "cl still rises at the end of the range (alpha " + fmt(c[k]->alpha) +
+    add_note(s.note, "cl still rises at the end of the range (alpha " + fmt(lift[k]->alpha) +
                          "): no cl_max, extend the range");
   }
 
@@ -156,11 +167,31 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points) {
       if (z < 0 || std::abs(mid) < std::abs(0.5 * (c[z]->alpha + c[z + 1]->alpha))) z = i;
     }
   }
+  // No crossing: extrapolate from the two end points nearest cl = 0 when the line through them
+  // reaches cl = 0 within one spacing outside them (e.g. a symmetric section's polar from 0 deg,
+  // where cl(0) is +-1e-8 of round-off).
+  bool extrapolated = false;
+  if (z < 0 && n >= 2) {
+    const int e = c[0]->cl > 0.0 ? 0 : n - 2;
+    const ViscousResult& a = *c[e];
+    const ViscousResult& b = *c[e + 1];
+    if (b.cl > a.cl) {
+      const double t = (0.0 - a.cl) / (b.cl - a.cl);
+      if (t >= -1.0 && t <= 2.0) {
+        z = e;
+        extrapolated = true;
+      }
+    }
+  }
   if (z >= 0) {
     const ViscousResult& a = *c[z];
     const ViscousResult& b = *c[z + 1];
     const double t = (0.0 - a.cl) / (b.cl - a.cl);
     s.has_zero_lift = true;
+    if (extrapolated) {
+      add_note(s.note,
+               "zero-lift angle extrapolated from alpha " + fmt(a.alpha) + " and " + fmt(b.alpha));
+    }
     s.alpha_zero_lift = a.alpha + t * (b.alpha - a.alpha);
     s.cm_zero_lift = a.cm + t * (b.cm - a.cm);
     std::vector<double> al, cl, cm;
@@ -322,54 +353,72 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     ++polar.solves;
     return solve(alpha, warm);
   };
-  polar.points[start] = call(grid[start], nullptr);
+  // The result at `target` from the last converged result `anchor` (null: none): warm, then
+  // cold, then (with `sub_step`) halved sub-steps from the anchor. A converged sub-step short of
+  // the target replaces the anchor, so the march goes on from the nearest converged state.
+  auto advance = [&](ViscousResult* anchor, double target, bool sub_step) {
+    if (!anchor) return call(target, nullptr);
+    ViscousResult r = call(target, &anchor->state);
+    if (r.converged) return r;
+    ViscousResult cold = call(target, nullptr);
+    if (cold.converged) return cold;
+    if (!sub_step) {
+      r.reason += "; cold start also failed";
+      return r;
+    }
+    const double dir = target > anchor->alpha ? 1.0 : -1.0;
+    ViscousResult cur = *anchor;
+    double h = 0.5 * (target - anchor->alpha);
+    while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
+      double a = cur.alpha + h;
+      if ((target - a) * dir < 1e-9) a = target;
+      ViscousResult t = call(a, &cur.state);
+      if (!t.converged) {
+        h *= 0.5;
+        continue;
+      }
+      if (a == target) return t;
+      sub_steps.push_back(t);
+      cur = std::move(t);
+    }
+    if (cur.alpha != anchor->alpha) *anchor = std::move(cur);
+    r.reason += "; cold start and sub-steps down to " + fmt(kMinSubStep, 2) +
+                " deg from the last converged angle also failed";
+    return r;
+  };
+
+  // Lead-in: when the grid does not reach the zero-lift angle, march to its nearest end from
+  // there (steps of at most alpha_step and 1 deg), since a cold start at high lift fails more
+  // often. The lead-in solutions only warm-start the first grid angle.
+  ViscousResult lead;
+  bool have_lead = false;
+  const double a0 = std::clamp(alpha_start_deg, -60.0, 60.0);
+  bool lead_previous = false;
+  if (std::abs(grid[start] - a0) > options.alpha_step + 1e-9) {
+    lead = call(a0, nullptr);
+    have_lead = lead_previous = lead.converged;
+    const double h = std::min(options.alpha_step, 1.0) * (grid[start] > a0 ? 1.0 : -1.0);
+    for (double a = a0 + h; std::abs(grid[start] - a) > 1e-9 && (grid[start] - a) * h > 0; a += h) {
+      ViscousResult r = advance(have_lead ? &lead : nullptr, a, lead_previous);
+      lead_previous = r.converged;
+      if (r.converged) {
+        lead = std::move(r);
+        have_lead = true;
+      }
+    }
+  }
+  polar.points[start] = advance(have_lead ? &lead : nullptr, grid[start], lead_previous);
+  polar.points[start].alpha = grid[start];
 
   for (int dir : {+1, -1}) {
     // The last converged result of this march (its state warm-starts the next angle).
     ViscousResult anchor;
-    bool have_anchor = polar.points[start].converged;
-    if (have_anchor) anchor = polar.points[start];
-    bool previous_converged = have_anchor;
+    bool have_anchor = polar.points[start].converged || have_lead;
+    anchor = polar.points[start].converged ? polar.points[start] : lead;
+    bool previous_converged = polar.points[start].converged;
     for (int i = start + dir; i >= 0 && i < n; i += dir) {
-      const double target = grid[i];
-      ViscousResult r;
-      if (!have_anchor) {
-        r = call(target, nullptr);
-      } else {
-        r = call(target, &anchor.state);
-        if (!r.converged) {
-          ViscousResult cold = call(target, nullptr);
-          if (cold.converged) r = std::move(cold);
-        }
-        if (!r.converged && previous_converged) {
-          // Approach by sub-steps from the anchor; a failed sub-step halves the step.
-          ViscousResult cur = anchor;
-          double h = 0.5 * (target - anchor.alpha);
-          while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
-            double a = cur.alpha + h;
-            if ((target - a) * dir < 1e-9) a = target;
-            ViscousResult t = call(a, &cur.state);
-            if (!t.converged) {
-              h *= 0.5;
-              continue;
-            }
-            if (a == target) {
-              r = std::move(t);
-              break;
-            }
-            sub_steps.push_back(t);
-            cur = std::move(t);
-          }
-          if (!r.converged) {
-            if (cur.alpha != anchor.alpha) anchor = cur;  // march on from the nearest state
-            r.reason += "; cold start and sub-steps down to " + fmt(kMinSubStep, 2) +
-                        " deg from the last converged angle also failed";
-          }
-        } else if (!r.converged) {
-          r.reason += "; cold start also failed";
-        }
-      }
-      r.alpha = target;
+      ViscousResult r = advance(have_anchor ? &anchor : nullptr, grid[i], previous_converged);
+      r.alpha = grid[i];
       previous_converged = r.converged;
       if (r.converged) {
         anchor = r;
@@ -393,24 +442,17 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     }
   }
 
-  polar.summary = summarize_polar(polar.points);
+  polar.summary = summarize_polar(polar.points, &sub_steps);
   PolarSummary& s = polar.summary;
-  if (s.has_cl_max && !s.cl_max_bracketed) {
-    // Sub-steps toward the first failed angle may have gone higher.
-    for (const ViscousResult& t : sub_steps) {
-      if (t.alpha > s.alpha_cl_max && t.cl > s.cl_max) {
-        s.cl_max = t.cl;
-        s.alpha_cl_max = t.alpha;
-      }
-    }
-  }
   if (options.refine_cl_max && s.cl_max_bracketed) {
     std::vector<ViscousResult> known;
     for (const ViscousResult& p : polar.points)
       if (p.converged && std::abs(p.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9)
         known.push_back(p);
     for (const ViscousResult& t : sub_steps)
-      if (std::abs(t.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9) known.push_back(t);
+      if (std::abs(t.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9 &&
+          t.alpha >= grid.front() && t.alpha <= grid.back())
+        known.push_back(t);
     polar.solves += refine_cl_max(known, solve, s);
   }
   return polar;
@@ -421,8 +463,9 @@ Polar sweep_polar(const ViscousSolver& solver, const PolarOptions& options) {
   InviscidResult zero;
   solver.inviscid().solve_for_cl(0.0, zero);
   const double start = zero.converged ? zero.alpha * 180.0 / std::numbers::pi : 0.0;
+  // One Newton solve per call: the fallbacks are the sweep's own (solve_alpha's would nest).
   const PointSolver solve = [&solver](double alpha, const ViscousState* warm) {
-    return solver.solve_alpha(alpha, warm);
+    return solver.solve_from(alpha, warm);
   };
   return sweep_polar(solve, start, options);
 }

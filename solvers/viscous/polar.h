@@ -49,7 +49,9 @@ struct PolarSummary {
   bool cl_max_bracketed = false;
   double cl_max = 0.0, alpha_cl_max = 0.0;
   // Zero lift: linear interpolation between the two converged neighbours whose cl changes sign
-  // from <= 0 to > 0 (the crossing nearest alpha = 0 when there are several). The linear range is
+  // from <= 0 to > 0 (the crossing nearest alpha = 0 when there are several; without a crossing,
+  // extrapolated from the two converged end points nearest cl = 0 when it lies within one of
+  // their spacings outside them, with a note). The linear range is
   // the converged points with alpha_zero_lift - 2 <= alpha <= alpha_zero_lift + 6 deg; the lift
   // slope (per deg) is the least-squares slope of cl(alpha) there and x_ac = 0.25 - dcm/dcl the
   // aerodynamic centre (x/c) from the least-squares slope of cm(cl) (cm about the quarter chord).
@@ -90,11 +92,14 @@ struct Polar {
 // ViscousSolver::solve_alpha in production; a stand-in in tests.
 using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousState* warm)>;
 
-// The polar of `solver` over options.angles(). Continuation: the first angle solved (cold) is
-// the grid angle nearest the inviscid zero-lift angle; from there the march goes up to
-// alpha_to and down to alpha_from, each angle warm-started from the last converged state. A
-// failed warm start is retried cold, then (when the previous grid angle converged) approached
-// by sub-steps from the last converged state, halving down to kMinSubStep. A point that still
+// The polar of `solver` over options.angles(). Continuation: the first angle solved is the grid
+// angle nearest the inviscid zero-lift angle (cold; when the grid does not reach the zero-lift
+// angle, warm from a lead-in march from it in steps of at most alpha_step and 1 deg); from there
+// the march goes up to alpha_to and down to alpha_from, each angle warm-started from the last
+// converged state. A failed warm start is retried cold, then (when the previous grid angle
+// converged) approached by sub-steps from the last converged state, halving down to
+// kMinSubStep. Each solve is one ViscousSolver::solve_from (these fallbacks replace
+// solve_alpha's). A point that still
 // fails is recorded with converged = false and the march goes on from the last converged state;
 // after the march, a failed angle whose far-side neighbour converged is tried once more,
 // warm-started from that neighbour. Then the summary (summarize_polar) and, with
@@ -106,7 +111,10 @@ Polar sweep_polar(const ViscousSolver& solver, const PolarOptions& options);
 Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarOptions& options);
 
 // The summary of `points` (any order; only converged ones count), without further solves.
-PolarSummary summarize_polar(const std::vector<ViscousResult>& points);
+// `extra`: more converged results (e.g. the sweep's sub-steps) that count for the lift maximum
+// only, when they lie between the first converged point and the last point.
+PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
+                             const std::vector<ViscousResult>* extra = nullptr);
 
 // Golden-section refinement of a bracketed lift maximum (summary.cl_max_bracketed) between the
 // converged grid neighbours of summary.alpha_cl_max, to a bracket narrower than

@@ -111,6 +111,20 @@ TEST(SummarizePolar, IgnoresOrderAndFailedPoints) {
   EXPECT_FALSE(s.has_cl_max);
 }
 
+// Exact: a line whose zero lies half a step below the first point (no sign change among the
+// points) is extrapolated to its zero; one that lies 3 steps below is not.
+TEST(SummarizePolar, ZeroLiftJustOutsideTheRangeIsExtrapolated) {
+  auto line = [](double a0) {
+    return synthetic(0.0, 6.0, 1.0, [a0](double a) { return point(a, 0.1 * (a - a0), 0.01, 0.0); });
+  };
+  const PolarSummary near = summarize_polar(line(-0.5));
+  ASSERT_TRUE(near.has_zero_lift);
+  EXPECT_NEAR(near.alpha_zero_lift, -0.5, 1e-12);
+  EXPECT_NEAR(near.lift_slope_per_deg, 0.1, 1e-12);
+  EXPECT_NE(near.note.find("extrapolated"), std::string::npos);
+  EXPECT_FALSE(summarize_polar(line(-3.0)).has_zero_lift);
+}
+
 TEST(SummarizePolar, NothingConvergedGivesNulls) {
   const auto pts = synthetic(0.0, 3.0, 1.0, [](double a) { return point(a, 1, 1, 1, false); });
   const nlohmann::json j = summarize_polar(pts).to_json();
@@ -141,6 +155,22 @@ TEST(SummarizePolar, FailuresBeyondTheMaximumAreNotBracketed) {
   EXPECT_FALSE(s.cl_max_bracketed);
   EXPECT_DOUBLE_EQ(s.cl_max, 1.2);
   EXPECT_NE(s.note.find("lower bound"), std::string::npos) << s.note;
+}
+
+// Extra samples count for cl_max only: a sub-step beyond the last converged point that lies
+// higher moves the maximum; one beyond it that lies lower brackets it.
+TEST(SummarizePolar, ExtraSamplesCountForTheMaximumOnly) {
+  const auto pts = synthetic(
+      0.0, 16.0, 1.0, [](double a) { return point(a, 0.1 * a, 0.01, 0.0, a <= 12.0 + 1e-9); });
+  const std::vector<ViscousResult> higher = {point(12.5, 1.25, 0.5, 0.0)};
+  const PolarSummary h = summarize_polar(pts, &higher);
+  EXPECT_DOUBLE_EQ(h.cl_max, 1.25);
+  EXPECT_FALSE(h.cl_max_bracketed);
+  EXPECT_NEAR(h.cd_min, 0.01, 1e-15);  // the extra sample's drag does not count
+  const std::vector<ViscousResult> lower = {point(12.25, 1.1, 0.01, 0.0)};
+  const PolarSummary l = summarize_polar(pts, &lower);
+  EXPECT_DOUBLE_EQ(l.alpha_cl_max, 12.0);
+  EXPECT_TRUE(l.cl_max_bracketed);
 }
 
 // A stand-in point solver: cl, cd, cm given as functions of alpha; its state remembers the angle
@@ -206,6 +236,27 @@ TEST(SweepPolar, SubStepsRecoverFailedWarmStarts) {
       EXPECT_LE(std::abs(a - w), 1.0 + 1e-12);
     }
   }
+}
+
+// Cold starts converge only near zero lift (|alpha| < 3) and warm starts over at most 1 deg: a
+// grid from 8 to 12 deg is reached by the lead-in march from the zero-lift angle.
+TEST(SweepPolar, LeadInFromZeroLiftWhenTheGridDoesNotReachIt) {
+  StandIn s;
+  s.converges = [](double a, const ViscousState* w) {
+    if (!w) return std::abs(a) < 3.0;
+    return std::abs(a - w->stations[0].c) <= 1.0 + 1e-9;
+  };
+  PolarOptions o;
+  o.alpha_from = 8;
+  o.alpha_to = 12;
+  const Polar p = sweep_polar(s.solver(), 0.4, o);
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  ASSERT_FALSE(s.calls.empty());
+  EXPECT_DOUBLE_EQ(s.calls[0].first, 0.4);  // the lead-in starts cold at zero lift
+  EXPECT_TRUE(std::isnan(s.calls[0].second));
+  // The lead-in states stay out of the polar: still rising at 12 deg, no maximum.
+  EXPECT_FALSE(p.summary.has_cl_max);
+  EXPECT_EQ(p.points.size(), 5u);
 }
 
 // 8 deg cannot be reached from below (warm from a smaller angle, cold, or sub-steps), only
