@@ -80,6 +80,24 @@ TEST(CliViscous, TextOutputWithoutJson) {
   EXPECT_NE(r.out.find("converged"), std::string::npos);
 }
 
+// At 55 deg the flow about a 12 % section is separated over most of the upper surface, far
+// beyond stall (about 16 deg; Abbott & von Doenhoff 1959, from memory), where an attached
+// integral boundary layer has no solution: the analysis must say so as a result (exit 0,
+// converged false, a warning on stderr) with finite numbers, not fail or print NaN.
+TEST(CliViscous, NonConvergenceIsAResultNotAnError) {
+  const CliResult r = run_fulmar({"analyze", "naca0012", "--alpha", "55", "--re", "1e6", "--json"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  EXPECT_NE(r.err.find("warning"), std::string::npos) << r.err;
+  const nlohmann::json j = nlohmann::json::parse(r.out);
+  EXPECT_FALSE(j["converged"].get<bool>());
+  EXPECT_NE(j["status"].get<std::string>(), "converged");
+  EXPECT_FALSE(j["reason"].get<std::string>().empty());
+  for (const char* key : {"cl", "cd", "cm", "cd_friction", "cd_pressure"}) {
+    ASSERT_TRUE(j[key].is_number()) << key << " " << j[key];
+    EXPECT_TRUE(std::isfinite(j[key].get<double>())) << key;
+  }
+}
+
 TEST(CliViscous, SurfaceCsvHasBoundaryLayerColumns) {
   const auto dir = fresh_directory("viscous_surface");
   const auto file = dir / "surface.csv";
