@@ -163,7 +163,10 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j)
       lay_.gap(lay_.n_surface + j) = wake_gap(te_gap_, lay_.s(lay_.n_surface + j));
     const int n3 = 3 * lay_.n;
-    jac_.resize(n3, n3);
+    g_.resize(n3, lay_.n);
+    blocks_.resize(static_cast<std::size_t>(kBlocks * lay_.n));
+    block_station_.assign(static_cast<std::size_t>(kBlocks * lay_.n), -1);
+    block_count_.assign(static_cast<std::size_t>(lay_.n), 0);
     res_.resize(n3);
     c_.resize(lay_.n);
     th_.resize(lay_.n);
@@ -611,14 +614,21 @@ class CoupledSystem {
     return first_xi(side) + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
   }
 
+  // The Jacobian is kept in two parts, J = L + G D P (D the mass-defect influence matrix, P the
+  // selection of the m unknowns): L holds each equation's direct dependence on the (c, theta, m)
+  // of the one or two stations of its interval (3 by 3 blocks; block lower triangular in the
+  // marching order of the stations), G (#equations by #stations) its dependence on the edge
+  // velocities. Newton steps are solved through L and an #stations-square capacitance matrix
+  // (Woodbury), O(n^2) + O(n_stations^3), instead of a dense LU of all 3 n unknowns.
+
   // Adds dR/d(c, theta, delta*, ue) of station i to row r of the Jacobian (chain rule through
   // delta* = m / ue and ue = ue_inv + D m; at a first station through first_speed).
   void add_row(int r, int i, double dc, double dth, double dds, double due) {
-    const int n = lay_.n;
-    jac_(r, i) += dc;
-    jac_(r, n + i) += dth;
     const double u = dstar_speed(i);
-    jac_(r, 2 * n + i) += dds / u;
+    Eigen::Matrix3d& b = block(r / 3, i);
+    b(r % 3, 0) += dc;
+    b(r % 3, 1) += dth;
+    b(r % 3, 2) += dds / u;
     const int side = first_station_side(i);
     if (side >= 0) {
       const double coef = due - dds * mu_(i) / (u * u);
@@ -633,13 +643,98 @@ class CoupledSystem {
   }
 
   // Adds dR/d(ue_i) = coef to row r (through ue = ue_inv + D m).
-  void add_speed(int r, int i, double coef) {
-    if (coef != 0.0) jac_.row(r).segment(2 * lay_.n, lay_.n) += coef * lay_.d.row(i);
+  void add_speed(int r, int i, double coef) { g_(r, i) += coef; }
+
+  static constexpr int kBlocks = 3;
+  // The L block of the equations of station `row` in the unknowns of station `col`.
+  Eigen::Matrix3d& block(int row, int col) {
+    int& count = block_count_[static_cast<std::size_t>(row)];
+    for (int k = 0; k < count; ++k)
+      if (block_station_[static_cast<std::size_t>(kBlocks * row + k)] == col)
+        return blocks_[static_cast<std::size_t>(kBlocks * row + k)];
+    // At most three (an interval's two stations; the trailing-edge merge's three).
+    const std::size_t k = static_cast<std::size_t>(kBlocks * row + std::min(count, kBlocks - 1));
+    count = std::min(count + 1, kBlocks);
+    block_station_[k] = col;
+    blocks_[k].setZero();
+    return blocks_[k];
+  }
+
+  // Stations in marching order: upper side from the stagnation point, lower side, wake.
+  void march_order(std::vector<int>& order) const {
+    order.clear();
+    for (int side = 0; side < 2; ++side)
+      for (int i : side_nodes(side)) order.push_back(i);
+    for (int j = 0; j < lay_.n_wake; ++j) order.push_back(lay_.n_surface + j);
+  }
+
+  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns).
+  bool solve_lower(Eigen::MatrixXd& b) const {
+    for (int s : order_) {
+      auto rows = b.middleRows(3 * s, 3);
+      const int count = block_count_[static_cast<std::size_t>(s)];
+      int self = -1;
+      for (int k = 0; k < count; ++k) {
+        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        if (j == s) {
+          self = k;
+          continue;
+        }
+        rows.noalias() -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] * b.middleRows(3 * j, 3);
+      }
+      if (self < 0) return false;
+      const Eigen::PartialPivLU<Eigen::Matrix3d> lu(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
+      rows = lu.solve(Eigen::MatrixXd(rows));
+    }
+    return b.allFinite();
+  }
+
+  // The Newton step for the current Jacobian and residuals into step_ (var-major: c, theta, m
+  // blocks of #stations each); false when the system is singular.
+  bool solve_newton() {
+    const int n = lay_.n;
+    march_order(order_);
+    // Right-hand sides: the residuals (station-major) and the columns of G.
+    rhs_.resize(3 * n, n + 1);
+    for (int i = 0; i < n; ++i)
+      for (int e = 0; e < 3; ++e) rhs_(3 * i + e, 0) = -res_(3 * i + e);
+    rhs_.rightCols(n) = g_;
+    if (!solve_lower(rhs_)) return false;
+    // P L^-1 [r G]: the m rows.
+    pm_.resize(n, n + 1);
+    for (int i = 0; i < n; ++i) pm_.row(i) = rhs_.row(3 * i + 2);
+    cap_.noalias() = lay_.d * pm_.rightCols(n);
+    cap_.diagonal().array() += 1.0;
+    const Eigen::VectorXd y = cap_.partialPivLu().solve(lay_.d * pm_.col(0));
+    const Eigen::VectorXd z = rhs_.col(0) - rhs_.rightCols(n) * y;
+    step_.resize(3 * n);
+    for (int i = 0; i < n; ++i) {
+      step_(i) = z(3 * i);
+      step_(n + i) = z(3 * i + 1);
+      step_(2 * n + i) = z(3 * i + 2);
+    }
+    return step_.allFinite();
+  }
+
+  // The dense Jacobian L + G D P (var-major columns), for the consistency test.
+  Eigen::MatrixXd dense_jacobian() const {
+    const int n = lay_.n;
+    Eigen::MatrixXd j = Eigen::MatrixXd::Zero(3 * n, 3 * n);
+    for (int s = 0; s < n; ++s)
+      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
+        const int c = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        const Eigen::Matrix3d& b = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
+        for (int e = 0; e < 3; ++e)
+          for (int v = 0; v < 3; ++v) j(3 * s + e, v * n + c) += b(e, v);
+      }
+    j.rightCols(n) += g_ * lay_.d;
+    return j;
   }
 
   // Residuals and Jacobian at the current state; returns max |residual|.
   double assemble() {
-    jac_.setZero();
+    g_.setZero();
+    std::fill(block_count_.begin(), block_count_.end(), 0);
     res_.setZero();
     const int n = lay_.n;
     for (int side = 0; side < 2; ++side) {
@@ -747,9 +842,7 @@ class CoupledSystem {
 
   // One limited Newton step; returns the relaxation factor used (0 if the solve failed).
   double newton_step() {
-    lu_.compute(jac_);
-    step_ = lu_.solve(-res_);
-    if (!step_.allFinite()) return 0.0;
+    if (!solve_newton()) return 0.0;
     const int n = lay_.n;
     double rlx = 1.0;
     limited_by_.clear();
@@ -893,7 +986,7 @@ class CoupledSystem {
     assemble();
     return fd;
   }
-  const Eigen::MatrixXd& jacobian() const { return jac_; }
+  Eigen::MatrixXd jacobian() const { return dense_jacobian(); }
 
   // Where the largest residual is: (station, equation).
   std::pair<int, int> worst_residual() const {
@@ -920,9 +1013,12 @@ class CoupledSystem {
   Layout lay_;
   int le_ = 0;
   double te_gap_ = 0.0;
-  Eigen::MatrixXd jac_;
+  Eigen::MatrixXd g_;                            // 3 n by n: d(residual)/d(ue)
+  std::vector<Eigen::Matrix3d> blocks_;          // up to 3 L blocks per station
+  std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
+  std::vector<int> order_;                       // marching order of the stations
+  Eigen::MatrixXd rhs_, pm_, cap_;
   Eigen::VectorXd res_, step_;
-  Eigen::PartialPivLU<Eigen::MatrixXd> lu_;
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
   bool ue_valid_ = false;
@@ -1149,7 +1245,17 @@ ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm
   inviscid_.solve_for_cl(cl_target, inv);
   double a0 = inv.converged ? inv.alpha / kDeg : 0.0;
   ViscousResult r0 = solve_alpha(a0, warm_start);
-  if (!r0.converged) return r0;
+  // A first angle that does not converge: try a few neighbours before giving up.
+  for (double offset : {-0.7, 0.6, -1.5, 1.3, -2.5}) {
+    if (r0.converged) break;
+    r0 = solve_alpha(a0 + offset, warm_start);
+    if (r0.converged) a0 += offset;
+  }
+  if (!r0.converged) {
+    r0.reason = "target cl not reached: no converged solution near the inviscid angle " +
+                std::to_string(inv.alpha / kDeg) + " deg; last: " + r0.reason;
+    return r0;
+  }
   double a1 = a0 + 0.5;
   ViscousResult r1 = solve_alpha(a1, &r0.state);
   for (int k = 0; k < 20; ++k) {
