@@ -484,6 +484,16 @@ class CoupledSystem {
     return transition_ctau_root(k);
   }
 
+  // turbulent_c and its derivatives with respect to the station's (c, theta, delta*, ue).
+  std::array<double, 5> turbulent_c_linearized(int i, const StationState& s) const {
+    if (kinds_[i] != LayerKind::kLaminar) return {s.c, 1.0, 0.0, 0.0, 0.0};
+    const Closure<Dual> k =
+        close_station(LayerKind::kTurbulent, Dual(0.0), Dual::input(s.theta, 0),
+                      Dual::input(s.dstar, 1), Dual::input(s.ue, 2), flow_);
+    const Dual c = transition_ctau_root(k);
+    return {c.v, 0.0, c.d[0], c.d[1], c.d[2]};
+  }
+
   // Decides laminar/turbulent per station from the current state (amplification, trips). The
   // transition interval moves by at most kMaxTransitionMove intervals per Newton iteration: a
   // transient state in early iterations can put the e^N point far from where it settles, and a
@@ -796,15 +806,17 @@ class CoupledSystem {
       const int w0 = lay_.n_surface, u = 0, l = lay_.n_surface - 1;
       const StationState a = station(u), b = station(l), w = station(w0);
       const double tsum = a.theta + b.theta;
-      const double cu = turbulent_c(u, a), cl = turbulent_c(l, b);
-      const bool lam_u = kinds_[u] == LayerKind::kLaminar, lam_l = kinds_[l] == LayerKind::kLaminar;
-      // c_w - (cu tu + cl tl) / (tu + tl)   (a laminar side's cu is held fixed)
+      // c_w - (cu tu + cl tl) / (tu + tl); a laminar side hands on the initial turbulent
+      // sqrt(Ctau) of its state (derivatives through the closures).
+      const std::array<double, 5> lu = turbulent_c_linearized(u, a), ll = turbulent_c_linearized(l, b);
+      const double cu = lu[0], cl = ll[0];
       const double cm = (cu * a.theta + cl * b.theta) / tsum;
       int r = 3 * w0;
       res_(r) = w.c - cm;
       add_row(r, w0, 1.0, 0.0, 0.0, 0.0);
-      add_row(r, u, lam_u ? 0.0 : -a.theta / tsum, -(cu - cm) / tsum, 0.0, 0.0);
-      add_row(r, l, lam_l ? 0.0 : -b.theta / tsum, -(cl - cm) / tsum, 0.0, 0.0);
+      const double fu = -a.theta / tsum, fl = -b.theta / tsum;
+      add_row(r, u, fu * lu[1], -(cu - cm) / tsum + fu * lu[2], fu * lu[3], fu * lu[4]);
+      add_row(r, l, fl * ll[1], -(cl - cm) / tsum + fl * ll[2], fl * ll[3], fl * ll[4]);
       r = 3 * w0 + 1;
       // (w - S) / S = w / S - 1: d/dS = -w / S^2.
       res_(r) = (w.theta - tsum) / tsum;

@@ -1,13 +1,16 @@
-// The coupled viscous-inviscid Newton solve. State of this solver (see the report): it converges
-// from a cold start on NACA 0012 at zero incidence; at other angles and from warm starts it does
-// not yet converge, which it reports as a result (the checks below hold for every angle).
+// The coupled viscous-inviscid Newton solve: consistency of its Jacobian, convergence, and the
+// physics against published experiments (each check names its source and why its tolerance).
 #include "solvers/viscous/viscous_solver.h"
 
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <string>
+#include <tuple>
+#include <vector>
 
 #include "common/error.h"
+#include "geometry/cst.h"
 #include "geometry/naca.h"
 #include "geometry/panelling.h"
 
@@ -20,9 +23,21 @@ Points naca_nodes(const std::string& digits, int panels) {
   return panel_nodes(naca_section(digits), po);
 }
 
-TEST(ViscousSolver, Naca0012ZeroIncidenceConvergesQuadratically) {
+ViscousOptions options_at(double reynolds, double trip = 1.0, double mach = 0.0) {
   ViscousOptions o;
-  o.reynolds = 6.0e6;
+  o.reynolds = reynolds;
+  o.trip_upper = o.trip_lower = trip;
+  o.mach = mach;
+  return o;
+}
+
+// Zero-lift angle by linear interpolation between two converged solutions that bracket cl = 0.
+double zero_lift_angle(const ViscousResult& a, const ViscousResult& b) {
+  return a.alpha - a.cl * (b.alpha - a.alpha) / (b.cl - a.cl);
+}
+
+TEST(ViscousSolver, Naca0012ZeroIncidenceConvergesQuadratically) {
+  const ViscousOptions o = options_at(6.0e6);
   const ViscousSolver solver(naca_nodes("0012", 160), o);
   const ViscousResult r = solver.solve_alpha(0.0);
   ASSERT_TRUE(r.converged) << r.reason;
@@ -33,13 +48,15 @@ TEST(ViscousSolver, Naca0012ZeroIncidenceConvergesQuadratically) {
   const auto& h = r.residual_history;
   ASSERT_GE(h.size(), 3u);
   for (std::size_t k = h.size() - 2; k < h.size(); ++k) EXPECT_LT(h[k], 20.0 * h[k - 1] * h[k - 1]);
-  // Symmetric section at zero incidence: no lift, no moment, the same transition on both sides.
+  ASSERT_EQ(r.history.size() + 1, h.size());
+  // Symmetric section at zero incidence: no lift, no moment, the same transition on both sides
+  // (exact).
   EXPECT_NEAR(r.cl, 0.0, 1e-3);
   EXPECT_NEAR(r.cm, 0.0, 1e-3);
   EXPECT_NEAR(r.transition_upper, r.transition_lower, 0.01);
   // Abbott & von Doenhoff 1959 (Theory of Wing Sections, app. IV, NACA 0012 at Re 6e6, smooth):
   // cd about 0.0058 at zero lift (the issue's figure; from memory). Tolerance 15 %, as the issue
-  // asks for cd_min of cambered sections.
+  // asks for cd_min of cambered sections. Measured 0.00546 (-6 %).
   EXPECT_NEAR(r.cd, 0.0058, 0.15 * 0.0058);
   // Friction dominates the drag of a thin section at zero lift; pressure drag small and positive
   // within the accuracy of the split (common practice: 5-20 % of cd).
@@ -47,9 +64,201 @@ TEST(ViscousSolver, Naca0012ZeroIncidenceConvergesQuadratically) {
   EXPECT_LT(r.cd_friction, 1.1 * r.cd);
 }
 
+// The Newton Jacobian (block boundary-layer part plus the edge-velocity coupling through the
+// mass-defect matrix) against central differences of the residuals, cold and warm started.
+struct JacobianCase {
+  std::string digits;
+  double alpha;
+  int steps;
+  double warm_from;  // NaN: cold start
+};
+
+class CoupledJacobian : public ::testing::TestWithParam<JacobianCase> {};
+
+TEST_P(CoupledJacobian, MatchesCentralDifferences) {
+  const JacobianCase c = GetParam();
+  const ViscousSolver solver(naca_nodes(c.digits, 120), options_at(3.0e6));
+  ViscousResult warm;
+  if (!std::isnan(c.warm_from)) {
+    warm = solver.solve_alpha(c.warm_from);
+    ASSERT_TRUE(warm.converged) << warm.reason;
+  }
+  const JacobianCheck j =
+      solver.jacobian_check(c.alpha, c.steps, std::isnan(c.warm_from) ? nullptr : &warm.state);
+  ASSERT_EQ(j.analytic.rows(), j.difference.rows());
+  // Relative to each row's largest entry: central differences with a 1e-6 relative step carry
+  // truncation and round-off errors near 1e-6 of that scale; 1e-4 leaves room for rows whose
+  // entries span many decades, and a wrong term shows up as an O(1) difference.
+  int bad = 0;
+  for (Eigen::Index r = 0; r < j.analytic.rows(); ++r) {
+    const double scale = j.difference.row(r).cwiseAbs().maxCoeff() + 1e-12;
+    const double err = (j.analytic.row(r) - j.difference.row(r)).cwiseAbs().maxCoeff();
+    if (err > 1e-4 * scale) ++bad;
+  }
+  EXPECT_EQ(bad, 0);
+}
+
+INSTANTIATE_TEST_SUITE_P(States, CoupledJacobian,
+                         ::testing::Values(JacobianCase{"0012", 0.0, 0, NAN},
+                                           JacobianCase{"0012", 4.0, 2, NAN},
+                                           JacobianCase{"2412", 3.0, 0, 2.0},
+                                           JacobianCase{"4412", 6.0, 3, NAN}),
+                         [](const ::testing::TestParamInfo<JacobianCase>& i) {
+                           return "naca" + i.param.digits + "_case" + std::to_string(i.index);
+                         });
+
+class ConvergesAt : public ::testing::TestWithParam<double> {};
+
+TEST_P(ConvergesAt, Naca0012FreeTransition) {
+  const double alpha = GetParam();
+  const ViscousSolver solver(naca_nodes("0012", 160), options_at(6.0e6));
+  const ViscousResult r = solver.solve_alpha(alpha);
+  ASSERT_TRUE(r.converged) << r.reason;
+  // Symmetric section: the lift changes sign with the angle (exact); its size against the
+  // inviscid slope of a 12 % section, 2 pi (1 + 0.77 t/c) per rad (from memory; the panel method
+  // gives it within 0.5 %), which the boundary layer lowers by up to 10 % below stall (common
+  // practice). Measured ratio to 2 pi: 1.033-1.038.
+  const double inviscid = 2.0 * M_PI * (1.0 + 0.77 * 0.12) * alpha * M_PI / 180.0;
+  EXPECT_GT(r.cl * inviscid, 0.0);
+  EXPECT_LT(r.cl / inviscid, 1.0);
+  EXPECT_GT(r.cl / inviscid, 0.9);
+  EXPECT_TRUE(std::isfinite(r.cd) && r.cd > 0.0);
+}
+
+INSTANTIATE_TEST_SUITE_P(Angles, ConvergesAt, ::testing::Values(-3.0, 2.0, 5.0, 8.0),
+                         [](const ::testing::TestParamInfo<double>& i) {
+                           return "alpha_" + std::to_string(i.index);
+                         });
+
+// NACA 0012, Re 6e6, M 0.15, transition fixed near the leading edge: C. L. Ladson, NASA TM 4074
+// (1988), values quoted by the issue (about 0.0081 at zero lift, cl about 1.07 at 10.1 deg, lift
+// slope about 0.108 per deg, cl_max about 1.61 near 17 deg). Trip at 5 % chord on both sides.
+TEST(ViscousValidation, Naca0012TrippedAgainstLadson1988) {
+  const ViscousSolver solver(naca_nodes("0012", 160), options_at(6.0e6, 0.05, 0.15));
+  const ViscousResult r0 = solver.solve_alpha(0.0);
+  ASSERT_TRUE(r0.converged) << r0.reason;
+  // Measured 0.00811. 5 %: the scatter of tripped-drag data between tunnels and trip heights
+  // (common practice) and the issue's "about".
+  EXPECT_NEAR(r0.cd, 0.0081, 0.05 * 0.0081);
+  const ViscousResult r4 = solver.solve_alpha(4.0, &r0.state);
+  ASSERT_TRUE(r4.converged) << r4.reason;
+  // Measured 0.116 per deg, 7 % above the tunnel value: the method has no wall-interference or
+  // trip-drag effects, and viscous lift slopes of such methods run a few percent high (common
+  // practice). Tolerance 10 %.
+  const double slope = (r4.cl - r0.cl) / 4.0;
+  EXPECT_NEAR(slope, 0.108, 0.0108);
+  const ViscousResult r10 = solver.solve_alpha(10.1, &r4.state);
+  ASSERT_TRUE(r10.converged) << r10.reason;
+  // Measured 1.13 (+6 %), which follows from the slope above; tolerance 0.1 (9 %).
+  EXPECT_NEAR(r10.cl, 1.07, 0.10);
+  // cl_max about 1.61: the largest converged cl on a 1-deg march from 12 deg (the solution stops
+  // converging at separation). Measured 1.66 at 16 deg. Tolerance 0.15, as the issue allows for
+  // cambered sections.
+  double cl_max = 0.0;
+  ViscousResult prev = r10;
+  for (double a = 12.0; a <= 20.0; a += 1.0) {
+    ViscousResult r = solver.solve_alpha(a, prev.converged ? &prev.state : nullptr);
+    if (!r.converged) break;
+    cl_max = std::max(cl_max, r.cl);
+    prev = std::move(r);
+  }
+  EXPECT_NEAR(cl_max, 1.61, 0.15);
+}
+
+// Cambered sections at Re 6e6, free transition, against Abbott & von Doenhoff 1959 (Theory of
+// Wing Sections, app. IV; values from memory): NACA 2412 zero-lift angle about -2.0 deg, cm
+// about -0.047, cd_min about 0.0060; NACA 4412 zero-lift angle about -3.9 deg, cm about -0.095,
+// cd_min about 0.0062. The issue's tolerances: zero-lift angle within 0.5 deg, cm within 0.02,
+// cd_min within 15 %.
+struct CamberedCase {
+  std::string digits;
+  double alpha_zero_lift, cm, cd_min;
+};
+
+class CamberedSection : public ::testing::TestWithParam<CamberedCase> {};
+
+TEST_P(CamberedSection, AgreesWithAbbottAndVonDoenhoff1959) {
+  const CamberedCase c = GetParam();
+  const ViscousSolver solver(naca_nodes(c.digits, 160), options_at(6.0e6));
+  std::vector<ViscousResult> polar;
+  const ViscousState* warm = nullptr;
+  for (double a : {-5.0, -4.0, -3.0, -2.0, -1.0, 0.0, 1.0, 2.0}) {
+    polar.push_back(solver.solve_alpha(a, warm));
+    ASSERT_TRUE(polar.back().converged) << c.digits << " " << a << ": " << polar.back().reason;
+    warm = &polar.back().state;
+  }
+  double a0 = NAN, cd_min = 1.0;
+  for (std::size_t k = 0; k + 1 < polar.size(); ++k) {
+    if (polar[k].cl <= 0.0 && polar[k + 1].cl > 0.0) a0 = zero_lift_angle(polar[k], polar[k + 1]);
+    cd_min = std::min(cd_min, polar[k].cd);
+  }
+  ASSERT_FALSE(std::isnan(a0));
+  EXPECT_NEAR(a0, c.alpha_zero_lift, 0.5);
+  // cm about the quarter chord in the linear range (at zero lift, the mean of the polar; it
+  // varies by less than 0.002 over it).
+  for (const ViscousResult& r : polar) EXPECT_NEAR(r.cm, c.cm, 0.02) << r.alpha;
+  // Sampled at 1-deg steps: the true minimum is at most a few tenths of a percent lower.
+  EXPECT_NEAR(cd_min, c.cd_min, 0.15 * c.cd_min);
+  // Facts of the trade (common practice): cambered sections have a negative cm, and it barely
+  // changes with angle below stall.
+  EXPECT_LT(polar.front().cm, 0.0);
+  EXPECT_NEAR(polar.front().cm, polar.back().cm, 0.01);
+}
+
+INSTANTIATE_TEST_SUITE_P(Naca, CamberedSection,
+                         ::testing::Values(CamberedCase{"2412", -2.0, -0.047, 0.0060},
+                                           CamberedCase{"4412", -3.9, -0.095, 0.0062}),
+                         [](const ::testing::TestParamInfo<CamberedCase>& i) {
+                           return "naca" + i.param.digits;
+                         });
+
+// Smoothness for the optimizer: cd over alpha 0..4 deg in 0.02-deg steps (warm-started) and
+// over a sweep of one CST coefficient has no jump larger than 1 % of cd between neighbours (the
+// issue's criterion). Measured 0.54 % (alpha).
+TEST(ViscousSmoothness, DragIsSmoothInAngle) {
+  const ViscousSolver solver(naca_nodes("0012", 160), options_at(3.0e6));
+  ViscousResult prev = solver.solve_alpha(0.0);
+  ASSERT_TRUE(prev.converged) << prev.reason;
+  double worst = 0.0;
+  for (int k = 1; k <= 200; ++k) {
+    const double a = 0.02 * k;
+    ViscousResult r = solver.solve_alpha(a, &prev.state);
+    ASSERT_TRUE(r.converged) << a << ": " << r.reason;
+    worst = std::max(worst, std::abs(r.cd - prev.cd) / prev.cd);
+    prev = std::move(r);
+  }
+  EXPECT_LT(worst, 0.01);
+}
+
+TEST(ViscousSmoothness, DragIsSmoothInAShapeCoefficient) {
+  const CstFit fit = fit_cst(naca_section("2412"), 5, 5);
+  PanellingOptions po;
+  po.panels = 160;
+  double prev = NAN, worst = 0.0;
+  for (int k = 0; k <= 10; ++k) {
+    CstShape shape = fit.shape;
+    shape.upper(2) += 2e-4 * k;  // 0.2 % of the coefficient per step
+    const ViscousSolver solver(panel_nodes(cst_section(shape), po), options_at(3.0e6));
+    const ViscousResult r = solver.solve_cl(0.5);
+    ASSERT_TRUE(r.converged) << k << ": " << r.reason;
+    if (!std::isnan(prev)) worst = std::max(worst, std::abs(r.cd - prev) / prev);
+    prev = r.cd;
+  }
+  EXPECT_LT(worst, 0.01);
+}
+
+// Refinement: cd changes less than 2 % from 160 to 320 panels (the issue's criterion).
+TEST(ViscousRefinement, DragChangesLittleFrom160To320Panels) {
+  const ViscousResult coarse =
+      ViscousSolver(naca_nodes("0012", 160), options_at(3.0e6)).solve_alpha(0.0);
+  const ViscousResult fine =
+      ViscousSolver(naca_nodes("0012", 320), options_at(3.0e6)).solve_alpha(0.0);
+  ASSERT_TRUE(coarse.converged && fine.converged) << coarse.reason << " / " << fine.reason;
+  EXPECT_NEAR(fine.cd, coarse.cd, 0.02 * coarse.cd);
+}
+
 TEST(ViscousSolver, EveryResultIsFiniteAndSaysWhatHappened) {
-  ViscousOptions o;
-  o.reynolds = 1.0e6;
+  ViscousOptions o = options_at(1.0e6);
   o.max_iterations = 8;
   const ViscousSolver solver(naca_nodes("2412", 120), o);
   for (double a : {-2.0, 3.0, 90.0}) {
@@ -61,6 +270,16 @@ TEST(ViscousSolver, EveryResultIsFiniteAndSaysWhatHappened) {
     EXPECT_EQ(r.converged, r.status == SolveStatus::kConverged);
     const nlohmann::json j = r.to_json();
     EXPECT_EQ(j.at("status").get<std::string>(), to_string(r.status));
+    EXPECT_EQ(j.at("history").size(), r.history.size());
+  }
+}
+
+TEST(ViscousSolver, TargetLiftIsReached) {
+  const ViscousSolver solver(naca_nodes("2412", 160), options_at(3.0e6));
+  for (double cl : {0.3, 0.9}) {
+    const ViscousResult r = solver.solve_cl(cl);
+    ASSERT_TRUE(r.converged) << r.reason;
+    EXPECT_NEAR(r.cl, cl, 1e-5);  // the stopping rule of solve_cl
   }
 }
 
