@@ -1,9 +1,17 @@
-// Polar timings (run from a Release build): a full viscous polar with cl_max refinement, and the
-// summary alone, for the sizes the optimizer and `fulmar polar` use. Prints the median of a few
-// runs and what the sweep did (solves, converged points).
+// Viscous timings and robustness (run from a Release build):
+//   1. one point of NACA 0012, Re 6e6, 160 panels: cold start and warm start from the 0.5-deg
+//      neighbour (ViscousSolver::solve_from), thread CPU time, minimum of repeats;
+//   2. a 41-point polar (sweep_polar, -10..10 deg step 0.5) and the summary alone;
+//   3. robustness: sweep_polar over -4..20 deg in 1-deg steps for six sections at three Reynolds
+//      numbers; converged fraction from -4 deg up to 2 deg beyond the cl peak (or 20 deg), and
+//      every failure in that range (alpha, reason).
+#include <time.h>
+
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
+#include <functional>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -13,72 +21,129 @@
 
 namespace {
 
-using fulmar::viscous::Polar;
+using namespace fulmar;
+using namespace fulmar::viscous;
 
-struct Run {
-  double seconds = 0.0;
-  Polar polar;
-};
-
-Run median_run(int runs, const fulmar::viscous::ViscousSolver& solver,
-               const fulmar::viscous::PolarOptions& options) {
-  std::vector<Run> all;
-  for (int r = 0; r < runs; ++r) {
-    const auto t0 = std::chrono::steady_clock::now();
-    Polar p = fulmar::viscous::sweep_polar(solver, options);
-    const auto t1 = std::chrono::steady_clock::now();
-    all.push_back({std::chrono::duration<double>(t1 - t0).count(), std::move(p)});
-  }
-  std::sort(all.begin(), all.end(), [](auto& a, auto& b) { return a.seconds < b.seconds; });
-  return std::move(all[all.size() / 2]);
+double thread_cpu_seconds() {
+  timespec t{};
+  clock_gettime(CLOCK_THREAD_CPUTIME_ID, &t);
+  return static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
 }
 
-void report(const char* name, double re, double from, double to, double step) {
-  fulmar::PanellingOptions po;
+// Minimum thread CPU time of `repeats` calls of f (seconds).
+double min_cpu(int repeats, const std::function<void()>& f) {
+  double best = std::numeric_limits<double>::infinity();
+  for (int r = 0; r < repeats; ++r) {
+    const double t0 = thread_cpu_seconds();
+    f();
+    best = std::min(best, thread_cpu_seconds() - t0);
+  }
+  return best;
+}
+
+ViscousSolver make_solver(const std::string& naca, double re) {
+  PanellingOptions po;
   po.panels = 160;
-  fulmar::viscous::ViscousOptions vo;
+  ViscousOptions vo;
   vo.reynolds = re;
-  const fulmar::viscous::ViscousSolver solver(panel_nodes(fulmar::naca_section(name), po), vo);
-  fulmar::viscous::PolarOptions o;
-  o.alpha_from = from;
-  o.alpha_to = to;
-  o.alpha_step = step;
-  const Run r = median_run(3, solver, o);
-  int converged = 0;
-  for (const auto& p : r.polar.points) converged += p.converged;
-  const auto& s = r.polar.summary;
+  return ViscousSolver(panel_nodes(naca_section(naca), po), vo);
+}
+
+void point_times() {
+  const ViscousSolver solver = make_solver("0012", 6e6);
+  const ViscousResult neighbour = solver.solve_from(3.5, nullptr);
+  ViscousResult cold, warm;
+  const double t_cold = min_cpu(5, [&] { cold = solver.solve_from(4.0, nullptr); });
+  const double t_warm = min_cpu(5, [&] { warm = solver.solve_from(4.0, &neighbour.state); });
+  std::printf("1. NACA 0012 Re 6e6 160 panels, alpha 4 (thread CPU, min of 5)\n");
+  std::printf("   cold start: %7.1f ms, %2d Newton iterations, converged %d\n", 1e3 * t_cold,
+              cold.iterations, cold.converged);
   std::printf(
-      "  NACA %s Re %.0e, %g..%g step %g: %6.2f s (%d/%zu converged, %d solves, %.0f ms "
-      "per solve); cl_max %s\n",
-      name, re, from, to, step, r.seconds, converged, r.polar.points.size(), r.polar.solves,
-      1e3 * r.seconds / std::max(1, r.polar.solves),
-      s.has_cl_max ? std::to_string(s.cl_max).c_str() : "none");
+      "   warm from 3.5 deg (neighbour converged %d): %7.1f ms, %2d iterations, "
+      "converged %d\n",
+      neighbour.converged, 1e3 * t_warm, warm.iterations, warm.converged);
+}
+
+void polar_times() {
+  const ViscousSolver solver = make_solver("0012", 6e6);
+  PolarOptions o;
+  o.alpha_from = -10;
+  o.alpha_to = 10;
+  o.alpha_step = 0.5;
+  Polar p;
+  const double t = min_cpu(3, [&] { p = sweep_polar(solver, o); });
+  int converged = 0;
+  for (const ViscousResult& r : p.points) converged += r.converged;
+  std::printf(
+      "2. 41-point polar NACA 0012 Re 6e6, -10..10 step 0.5 (thread CPU, min of 3): "
+      "%.2f s, %d/%zu converged, %d solves (%.0f ms per solve)\n",
+      t, converged, p.points.size(), p.solves, 1e3 * t / std::max(1, p.solves));
+  const int calls = 20000;
+  double sink = 0.0;
+  const double ts = min_cpu(1, [&] {
+    for (int c = 0; c < calls; ++c) sink += summarize_polar(p.points).cd_min;
+  });
+  std::printf("   summarize_polar on it: %.2f us/call (%g)\n", 1e6 * ts / calls, sink / calls);
+}
+
+void robustness() {
+  std::printf(
+      "3. robustness: sweep_polar -4..20 deg step 1 (no cl_max refinement), counted from "
+      "-4 deg to 2 deg beyond the cl peak or 20 deg\n");
+  std::printf("   %-6s %8s %9s %7s %7s %6s  failures (alpha: reason)\n", "NACA", "Re", "converged",
+              "peak", "cl_max", "CPU s");
+  int total = 0, total_ok = 0;
+  for (const char* name : {"0009", "0012", "2412", "4412", "4415", "23012"}) {
+    for (double re : {2e5, 1e6, 6e6}) {
+      const ViscousSolver solver = make_solver(name, re);
+      PolarOptions o;
+      o.alpha_from = -4;
+      o.alpha_to = 20;
+      o.alpha_step = 1;
+      o.refine_cl_max = false;
+      const double t0 = thread_cpu_seconds();
+      const Polar p = sweep_polar(solver, o);
+      const double cpu = thread_cpu_seconds() - t0;
+      // The grid peak of converged cl; the counted range ends 2 deg beyond it when cl falls
+      // after it or the solutions stop converging after it, else at 20 deg.
+      const PolarSummary& s = p.summary;
+      const double end = s.has_cl_max ? s.alpha_cl_max + 2.0 + 1e-9 : 20.0;
+      int n = 0, ok = 0;
+      std::string failures;
+      for (const ViscousResult& r : p.points) {
+        if (r.alpha > end) continue;
+        ++n;
+        ok += r.converged;
+        if (!r.converged) {
+          char buf[160];
+          std::snprintf(buf, sizeof buf, " %g: %.60s;", r.alpha, r.reason.c_str());
+          failures += buf;
+        }
+      }
+      total += n;
+      total_ok += ok;
+      char peak[32] = "-", clmax[32] = "-";
+      if (s.has_cl_max) {
+        std::snprintf(peak, sizeof peak, "%.1f%s", s.alpha_cl_max, s.cl_max_bracketed ? "" : "?");
+        std::snprintf(clmax, sizeof clmax, "%.3f", s.cl_max);
+      }
+      std::printf("   %-6s %8.0e %5d/%-3d %7s %7s %6.1f %s\n", name, re, ok, n, peak, clmax, cpu,
+                  failures.c_str());
+      std::fflush(stdout);
+    }
+  }
+  std::printf(
+      "   all: %d/%d converged (%.1f %%); peak '?' = last converged angle before "
+      "failures (a lower bound), '-' = cl still rising at 20 deg\n",
+      total_ok, total, 100.0 * total_ok / std::max(1, total));
 }
 
 }  // namespace
 
 int main() {
-  std::printf("polar benchmark (160 panels, N_crit 9, median of 3 runs)\n");
-  report("0012", 6e6, -2, 8, 1);
-  report("0012", 6e6, -4, 20, 1);
-  report("2412", 3e6, -4, 16, 1);
-  report("0012", 1e6, 8, 18, 1);
-
-  // The summary alone, on a 41-point polar (no solves).
-  std::vector<fulmar::viscous::ViscousResult> pts(41);
-  for (int i = 0; i < 41; ++i) {
-    const double a = -4.0 + 0.5 * i;
-    pts[i].alpha = a;
-    pts[i].cl = 0.11 * a - 0.001 * a * a * a * 0.1;
-    pts[i].cd = 0.006 + 0.01 * pts[i].cl * pts[i].cl;
-    pts[i].converged = true;
-  }
-  const int calls = 20000;
-  const auto t0 = std::chrono::steady_clock::now();
-  double sink = 0.0;
-  for (int c = 0; c < calls; ++c) sink += fulmar::viscous::summarize_polar(pts).cd_min;
-  const auto t1 = std::chrono::steady_clock::now();
-  std::printf("  summarize_polar, 41 points: %.2f us/call (%g)\n",
-              std::chrono::duration<double, std::micro>(t1 - t0).count() / calls, sink / calls);
+  std::printf("viscous polar benchmark (160 panels, N_crit 9, free transition)\n");
+  point_times();
+  polar_times();
+  robustness();
   return 0;
 }
