@@ -1,6 +1,7 @@
 #include "solvers/viscous/polar.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <limits>
 #include <numbers>
@@ -428,17 +429,28 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     }
   }
 
-  // A failed angle between converged ones: the march reached it from one side only; try it
-  // once warm-started from the converged neighbour on the other side (hysteresis and the
-  // transition point's jumps make the two sides differ).
-  for (int i = 0; i < n; ++i) {
-    if (polar.points[i].converged) continue;
-    const int from_side = i > start ? i + 1 : i - 1;  // the side the march did not come from
-    if (from_side < 0 || from_side >= n || !polar.points[from_side].converged) continue;
-    ViscousResult r = call(grid[i], &polar.points[from_side].state);
-    if (r.converged) {
-      r.alpha = grid[i];
-      polar.points[i] = std::move(r);
+  // Back-fill: a failed angle next to a converged one is tried warm-started from that neighbour
+  // (the far side first: the march reached the angle from one side only, and hysteresis and
+  // the transition point's jumps make the sides differ). Each (angle, neighbour) pair once;
+  // passes repeat while an angle converges, since it may open the way to the next.
+  std::vector<std::array<bool, 2>> tried(static_cast<std::size_t>(n), {false, false});
+  for (bool changed = true; changed;) {
+    changed = false;
+    for (int i = 0; i < n; ++i) {
+      if (polar.points[i].converged) continue;
+      const int far = i > start ? 1 : 0;  // index into {i - 1, i + 1}
+      for (int side : {far, 1 - far}) {
+        const int nb = side == 0 ? i - 1 : i + 1;
+        if (nb < 0 || nb >= n || tried[i][side] || !polar.points[nb].converged) continue;
+        tried[i][side] = true;
+        ViscousResult r = call(grid[i], &polar.points[nb].state);
+        if (r.converged) {
+          r.alpha = grid[i];
+          polar.points[i] = std::move(r);
+          changed = true;
+          break;
+        }
+      }
     }
   }
 

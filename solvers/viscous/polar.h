@@ -101,8 +101,8 @@ using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousS
 // kMinSubStep. Each solve is one ViscousSolver::solve_from (these fallbacks replace
 // solve_alpha's). A point that still
 // fails is recorded with converged = false and the march goes on from the last converged state;
-// after the march, a failed angle whose far-side neighbour converged is tried once more,
-// warm-started from that neighbour. Then the summary (summarize_polar) and, with
+// after the march, a failed angle next to a converged one is tried warm-started from it (far
+// side first; repeated while angles converge). Then the summary (summarize_polar) and, with
 // options.refine_cl_max, refine_cl_max. Throws InputError for bad options; flow failures are in the
 // points.
 Polar sweep_polar(const ViscousSolver& solver, const PolarOptions& options);

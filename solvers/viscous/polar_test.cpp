@@ -278,6 +278,20 @@ TEST(SweepPolar, FailedAngleIsRetriedFromTheFarSide) {
   EXPECT_DOUBLE_EQ(s.calls.back().second, 9.0);
 }
 
+// The first (cold) angle fails but its neighbours converge: the back-fill solves it warm from
+// one of them.
+TEST(SweepPolar, FailedStartIsBackFilledFromANeighbour) {
+  StandIn s;
+  s.converges = [](double a, const ViscousState* w) { return w != nullptr || a != 0.0; };
+  PolarOptions o;
+  o.alpha_from = -2;
+  o.alpha_to = 2;
+  const Polar p = sweep_polar(s.solver(), 0.0, o);
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  EXPECT_DOUBLE_EQ(s.calls.back().first, 0.0);
+  EXPECT_FALSE(std::isnan(s.calls.back().second));
+}
+
 // Stall stand-in: nothing converges above 10.4 deg. The points above fail (converged false, grid
 // angles kept), the march goes on, and cl_max is the highest sub-step reached, a lower bound.
 TEST(SweepPolar, StallBeyondAnAngleGivesAnUnbracketedMaximum) {
