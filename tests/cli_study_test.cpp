@@ -25,7 +25,7 @@ json tiny_study() {
     "landing": {"reynolds": 2e6},
     "constraints": {"cl_max": {"min": 1.3}, "cm": {"min": -0.08}, "thickness": {"min": 0.12}},
     "parameterization": {"order_upper": 4, "order_lower": 4, "bounds": {"margin": 0.2}},
-    "optimizer": {"max_evaluations": 30, "seed": 3},
+    "optimizer": {"max_evaluations": 12, "seed": 3},
     "analysis": {"panels": 60, "verify_panels": 60, "polar_alpha": {"min": -4, "max": 12, "step": 4}},
     "outputs": {"polars": false},
     "baseline": {"naca": "0015"},

@@ -18,6 +18,7 @@ constexpr int kColdStartReMarch = 0;
 constexpr bool kLineSearch = false;
 constexpr bool kLocalLimits = false;
 constexpr double kMinRelaxation = 0.2;
+constexpr int kFloorHalvings = 3;
 
 void require(bool ok, const std::string& field, double value, const std::string& rule) {
   if (ok) return;
@@ -916,25 +917,34 @@ class CoupledSystem {
     // Keep every H above the closures' floor (see boundary_layer.cpp): scale the step down.
     const Eigen::VectorXd dmu = step_.segment(2 * n, n);
     const Eigen::VectorXd due = lay_.d * dmu;
+    // The shape-factor floor halves the step at most kFloorHalvings times; stations still below
+    // it after the step are then put on it (their delta* raised), so that one station near the
+    // floor cannot freeze the whole solution.
+    std::vector<double> h_floor(static_cast<std::size_t>(n), 0.0);
+    for (int i = 0; i < n; ++i) h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
+    bool floor_fix = false;
     for (int k = 0; k < 20; ++k) {
-      bool ok = true;
-      for (int i = 0; i < n && ok; ++i) {
+      bool sign_ok = true, floor_ok = true;
+      for (int i = 0; i < n && sign_ok; ++i) {
         const double u = ue_(i) + rlx * due(i);
         if (i == lay_.stag || i == lay_.stag + 1) continue;
         if (u <= 0.0) {
-          ok = false;
+          sign_ok = false;
           limited_by_ = "edge velocity sign at station " + std::to_string(i);
           break;
         }
         const double h =
             ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
-        const double h0 = station(i).dstar / th_(i);
-        if (h < 0.5 * (std::min(h0, 1.05) + 1.0)) {
-          ok = false;
+        if (h < h_floor[i]) {
+          floor_ok = false;
           limited_by_ = "shape factor floor at station " + std::to_string(i);
         }
       }
-      if (ok) break;
+      if (sign_ok && floor_ok) break;
+      if (sign_ok && k >= kFloorHalvings) {
+        floor_fix = true;
+        break;
+      }
       rlx *= 0.5;
     }
     // Backtracking on the 2-norm of the residuals (the Newton direction descends on it): halve
@@ -957,6 +967,15 @@ class CoupledSystem {
       rlx *= 0.5;
     }
     if (best_rlx != rlx) apply_step(best_rlx);
+    if (floor_fix) {
+      for (int i = 0; i < n; ++i) {
+        if (first_station_side(i) >= 0) continue;
+        const double u = dstar_speed(i);
+        if ((mu_(i) / u - lay_.gap(i)) / th_(i) < h_floor[i])
+          mu_(i) = u * (h_floor[i] * th_(i) + lay_.gap(i));
+      }
+      update_edge_velocity();
+    }
     return best_rlx;
   }
 
