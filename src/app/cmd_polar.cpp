@@ -262,13 +262,14 @@ void run_viscous(const PolarArgs& args) {
                   r.converged ? "yes" : "NO");
     }
     const nlohmann::json s = p.polar.summary.to_json();
-    std::printf("  cl_max %s at alpha %s; zero lift at alpha %s, slope %s /deg, cm0 %s, x_ac %s\n",
-                summary_value(s["cl_max"], "%.4f").c_str(),
-                summary_value(s["alpha_cl_max"], "%.2f").c_str(),
-                summary_value(s["alpha_zero_lift"], "%.3f").c_str(),
-                summary_value(s["lift_slope_per_deg"], "%.4f").c_str(),
-                summary_value(s["cm_zero_lift"], "%.4f").c_str(),
-                summary_value(s["x_ac"], "%.4f").c_str());
+    const bool lower_bound = p.polar.summary.has_cl_max && !p.polar.summary.cl_max_bracketed;
+    std::printf(
+        "  cl_max %s%s at alpha %s; zero lift at alpha %s, slope %s /deg, cm0 %s, x_ac %s\n",
+        summary_value(s["cl_max"], "%.4f").c_str(), lower_bound ? " (lower bound)" : "",
+        summary_value(s["alpha_cl_max"], "%.2f").c_str(),
+        summary_value(s["alpha_zero_lift"], "%.3f").c_str(),
+        summary_value(s["lift_slope_per_deg"], "%.4f").c_str(),
+        summary_value(s["cm_zero_lift"], "%.4f").c_str(), summary_value(s["x_ac"], "%.4f").c_str());
     std::printf("  cd_min %s at cl %s", summary_value(s["cd_min"], "%.6f").c_str(),
                 summary_value(s["cl_at_cd_min"], "%.4f").c_str());
     if (!s["bucket"].is_null()) {
