@@ -212,16 +212,41 @@ TEST(CliOptimize, DemoCheckShowsTheLiftEquationResult) {
   EXPECT_NE(r.out.find("cl 0.339"), std::string::npos) << r.out;
 }
 
-TEST(CliOptimize, WithoutTheViscousAnalysisItSaysSoAndWritesNothing) {
-  const fs::path dir = fresh_directory("optimize_noviscous");
-  const CliResult r = run_fulmar(
-      {"optimize", (source_dir() / "cases" / "demo.json").string(), "-o", (dir / "out").string()});
-  if (r.exit_code == 2) {
-    EXPECT_NE(r.err.find("viscous-inviscid analysis is not available"), std::string::npos) << r.err;
-    EXPECT_FALSE(fs::exists(dir / "out"));
-  } else {
-    GTEST_SKIP() << "this build has the viscous analysis";
-  }
+// A small real optimization with the viscous analysis: a deliberately poor baseline (NACA 0021,
+// far thicker than the 12 % the case asks for) at one design point must come out with less drag
+// and every constraint met in the fresh verification analysis. Coarse panels and a small budget
+// keep it to seconds; the drag of a section falls with its thickness at fixed lift below stall
+// (common practice: about 10 % of the profile drag per 3 % of t/c at these Reynolds numbers).
+json small_case() {
+  return json::parse(R"({
+    "schema_version": 1, "name": "cli small optimization",
+    "design_points": [{"name": "cruise", "cl": 0.4, "reynolds": 3e6}],
+    "constraints": {"thickness": {"min": 0.12}, "cm": {"min": -0.1}},
+    "parameterization": {"order_upper": 3, "order_lower": 3, "bounds": {"margin": 0.25}},
+    "optimizer": {"algorithm": "cobyla", "max_evaluations": 80, "seed": 2},
+    "analysis": {"panels": 100, "verify_panels": 110},
+    "outputs": {"polars": false, "plots": false},
+    "baseline": {"naca": "0021"}
+  })");
+}
+
+TEST(CliOptimize, SmallOptimizationImprovesAPoorBaselineWithinItsConstraints) {
+  const fs::path dir = fresh_directory("optimize_small");
+  const fs::path c = dir / "case.json";
+  std::ofstream(c) << small_case().dump(2);
+  const CliResult r = run_fulmar({"optimize", c.string(), "-o", (dir / "out").string()});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  std::ifstream in(dir / "out" / "summary.json");
+  const json s = json::parse(in);
+  ASSERT_TRUE(s.at("optimized").at("analysis_ok").get<bool>()) << s.at("optimized").dump();
+  EXPECT_TRUE(s.at("feasible").get<bool>());
+  for (const json& k : s.at("constraints"))
+    EXPECT_TRUE(k.at("satisfied").get<bool>()) << k.dump();
+  const double cd0 = s.at("baseline").at("weighted_cd").get<double>();
+  const double cd1 = s.at("optimized").at("weighted_cd").get<double>();
+  // At least 3 % less drag: thinning from 21 % to about 12 % alone is worth more (see above).
+  EXPECT_LT(cd1, 0.97 * cd0) << cd0 << " -> " << cd1;
+  EXPECT_TRUE(fs::exists(dir / "out" / "optimized_cst.json"));
   fs::remove_all(dir);
 }
 
