@@ -14,10 +14,6 @@ namespace fulmar::viscous {
 namespace {
 
 constexpr double kDeg = std::numbers::pi / 180.0;
-constexpr int kColdStartReMarch = 0;
-constexpr bool kLineSearch = false;
-constexpr bool kLocalLimits = false;
-constexpr double kMinRelaxation = 0.2;
 constexpr int kFloorHalvings = 3;
 
 void require(bool ok, const std::string& field, double value, const std::string& rule) {
@@ -188,40 +184,10 @@ class CoupledSystem {
     lay_.d = lay_.sign.asDiagonal() * model_.mass_influence * lay_.sign.asDiagonal();
   }
 
-  // Cold start: march both surfaces and the wake on the inviscid edge velocity; then march
-  // again on the inviscid surface speed at the lower angle that has the circulation of the
-  // marched layer's viscous flow. The displacement lowers the circulation and moves the
-  // stagnation point; a start from the inviscid flow at the geometric angle would leave Newton to
-  // find that through the most sensitive stations, those next to the stagnation point.
-  void cold_start(double alpha_rad) {
-    cold_march(model_.edge_velocity);
-    if (kColdStartReMarch == 0) return;
-    const Eigen::VectorXd q_viscous =
-        model_.edge_velocity + model_.mass_influence * lay_.sign.cwiseProduct(mu_);
-    const int ns = lay_.n_surface;
-    auto circulation = [&](const Eigen::VectorXd& q) {
-      double g = 0.0;
-      for (int i = 0; i + 1 < ns; ++i) g += 0.5 * (q(i) + q(i + 1)) * (lay_.s(i + 1) - lay_.s(i));
-      return g;
-    };
-    const double target = circulation(q_viscous);
-    InviscidResult r;
-    double a0 = alpha_rad, g0 = circulation(model_.edge_velocity);
-    double a1 = alpha_rad - 0.02;
-    inv_.solve(a1, r);
-    double g1 = circulation(r.ue);
-    for (int k = 0; k < 4 && std::abs(g1 - g0) > 1e-12; ++k) {
-      const double a2 = a1 + (target - g1) * (a1 - a0) / (g1 - g0);
-      a0 = a1;
-      g0 = g1;
-      a1 = std::clamp(a2, alpha_rad - 0.3, alpha_rad + 0.3);
-      inv_.solve(a1, r);
-      g1 = circulation(r.ue);
-    }
-    Eigen::VectorXd q = model_.edge_velocity;
-    q.head(ns) = r.ue;
-    cold_march(q);
-  }
+  // Cold start: march both surfaces and the wake on the inviscid edge velocity. (A second march
+  // on the speeds of the marched layer's viscous flow, or on the inviscid flow at the angle of
+  // its circulation, starts Newton further from the solution near the stagnation point.)
+  void cold_start() { cold_march(model_.edge_velocity); }
 
   // One cold-start march on the node-sense speeds q (#stations).
   void cold_march(const Eigen::VectorXd& q) {
@@ -874,47 +840,7 @@ class CoupledSystem {
       else
         limit(step_(i), 0.5 * c_(i), "shear stress", i);
     }
-    // The step is scaled by the worst station's limit, but not below kMinRelaxation: one
-    // station far from its solution would otherwise freeze all others; beyond that each
-    // component is clipped to its own limit (a local limiter), and every H is kept above the
-    // closures' floor (see boundary_layer.cpp) by raising that station's delta*.
-    if (kLocalLimits) {
-      if (rlx < kMinRelaxation) rlx = kMinRelaxation;
-      saved_c_ = c_;
-      saved_th_ = th_;
-      saved_mu_ = mu_;
-      std::vector<double> h_floor(static_cast<std::size_t>(n));
-      for (int i = 0; i < n; ++i)
-        h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
-      for (int i = 0; i < n; ++i) {
-        const double dth = std::clamp(rlx * step_(n + i), -0.5 * th_(i), 0.5 * th_(i));
-        const double mlim = 0.5 * std::abs(mu_(i)) + 0.05 * th_(i);
-        const double dm = std::clamp(rlx * step_(2 * n + i), -mlim, mlim);
-        const double clim = kinds_[i] == LayerKind::kLaminar ? 2.0 : 0.5 * c_(i);
-        const double dc = std::clamp(rlx * step_(i), -clim, clim);
-        th_(i) = std::max(th_(i) + dth, 1e-9);
-        mu_(i) += dm;
-        c_(i) += dc;
-        if (kinds_[i] != LayerKind::kLaminar) c_(i) = std::max(c_(i), 1e-5);
-      }
-      update_edge_velocity();
-      bool raised = false;
-      for (int i = 0; i < n; ++i) {
-        if (first_station_side(i) >= 0) continue;
-        const double u = dstar_speed(i);
-        const double h = (mu_(i) / u - lay_.gap(i)) / th_(i);
-        if (h < h_floor[i]) {
-          mu_(i) = u * (h_floor[i] * th_(i) + lay_.gap(i));
-          raised = true;
-        }
-      }
-      if (raised) {
-        update_edge_velocity();
-        if (limited_by_.empty()) limited_by_ = "shape factor floor";
-      }
-      return rlx;
-    }
-    // Keep every H above the closures' floor (see boundary_layer.cpp): scale the step down.
+    // Keep every H above the closures' floor (see boundary_layer.cpp) and every ue positive.
     const Eigen::VectorXd dmu = step_.segment(2 * n, n);
     const Eigen::VectorXd due = lay_.d * dmu;
     // The shape-factor floor halves the step at most kFloorHalvings times; stations still below
@@ -947,26 +873,10 @@ class CoupledSystem {
       }
       rlx *= 0.5;
     }
-    // Backtracking on the 2-norm of the residuals (the Newton direction descends on it): halve
-    // the step until the norm falls, at most 6 times; then take the best of the tries.
-    const double norm0 = res_.norm();
     saved_c_ = c_;
     saved_th_ = th_;
     saved_mu_ = mu_;
-    double best_rlx = rlx, best_norm = INFINITY;
-    for (int k = 0; k < (kLineSearch ? 7 : 1); ++k) {
-      apply_step(rlx);
-      assemble();
-      const double norm = res_.allFinite() ? res_.norm() : INFINITY;
-      if (norm < best_norm) {
-        best_norm = norm;
-        best_rlx = rlx;
-      }
-      if (norm < (1.0 - 1e-4 * rlx) * norm0) break;
-      if (k == 0 && limited_by_.empty()) limited_by_ = "residual norm";
-      rlx *= 0.5;
-    }
-    if (best_rlx != rlx) apply_step(best_rlx);
+    apply_step(rlx);
     if (floor_fix) {
       for (int i = 0; i < n; ++i) {
         if (first_station_side(i) >= 0) continue;
@@ -976,7 +886,7 @@ class CoupledSystem {
       }
       update_edge_velocity();
     }
-    return best_rlx;
+    return rlx;
   }
 
   // State = saved state + rlx * step, with the positivity floors.
@@ -1068,7 +978,7 @@ JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
                                             const ViscousState* warm_start) const {
   const CouplingModel model = inviscid_.coupling_model(alpha_deg * kDeg);
   CoupledSystem sys(inviscid_, model, options_, flow_);
-  if (!(warm_start && sys.warm_start(*warm_start))) sys.cold_start(alpha_deg * kDeg);
+  if (!(warm_start && sys.warm_start(*warm_start))) sys.cold_start();
   sys.take_transition_from_kinds();
   sys.update_edge_velocity();
   sys.mark_ue_valid();
@@ -1138,7 +1048,7 @@ ViscousResult ViscousSolver::solve_from(double alpha_deg, const ViscousState* wa
   const CouplingModel model = inviscid_.coupling_model(alpha);
   CoupledSystem sys(inviscid_, model, options_, flow_);
   bool warm = warm_start && warm_start->valid() && sys.warm_start(*warm_start);
-  if (!warm) sys.cold_start(alpha_deg * kDeg);
+  if (!warm) sys.cold_start();
   sys.take_transition_from_kinds();
   sys.update_edge_velocity();
   sys.mark_ue_valid();
