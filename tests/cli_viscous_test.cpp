@@ -185,6 +185,18 @@ TEST(CliViscous, PolarTwoReynoldsNumbers) {
             j["polars"][0]["points"][0]["cd"].get<double>());
 }
 
+// Exact: each Reynolds number has its own solver and thread, so a polar computed beside another
+// equals the same polar computed alone, digit for digit.
+TEST(CliViscous, ParallelPolarsEqualSingleRuns) {
+  const nlohmann::json both = run_json({"polar", "naca2412", "--re", "3e6", "--re", "6e6",
+                                        "--alpha", "0:2:1", "--panels", "120", "--json"});
+  const nlohmann::json alone = run_json(
+      {"polar", "naca2412", "--re", "6e6", "--alpha", "0:2:1", "--panels", "120", "--json"});
+  ASSERT_EQ(both["polars"].size(), 2u);
+  EXPECT_EQ(both["polars"][1]["points"], alone["points"]);
+  EXPECT_EQ(both["polars"][1]["summary"], alone["summary"]);
+}
+
 TEST(CliViscous, BadValuesExitTwoNamingTheOptionAndWriteNothing) {
   const auto dir = fresh_directory("viscous_bad");
   const auto file = dir / "out.csv";
