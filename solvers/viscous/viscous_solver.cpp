@@ -676,7 +676,7 @@ class CoupledSystem {
     for (int i = 0; i < n; ++i)
       for (int e = 0; e < 3; ++e) rhs_(3 * i + e, 0) = -res_(3 * i + e);
     rhs_.rightCols(n) = g_;
-    if (!solve_lower(rhs_)) return false;
+    if (!solve_lower(rhs_)) rhs_.setConstant(NAN);
     // P L^-1 [r G]: the m rows.
     pm_.resize(n, n + 1);
     for (int i = 0; i < n; ++i) pm_.row(i) = rhs_.row(3 * i + 2);
@@ -690,7 +690,30 @@ class CoupledSystem {
       step_(n + i) = z(3 * i + 1);
       step_(2 * n + i) = z(3 * i + 2);
     }
+    // The boundary-layer blocks alone become singular where the layer separates (with the edge
+    // velocity held, the equations cannot fix the layer there; only the coupling does), and the
+    // elimination through them then loses accuracy: check the step against the full system and
+    // fall back to a dense LU of it when it does not solve it.
+    const double scale = res_.cwiseAbs().maxCoeff();
+    if (!step_.allFinite() ||
+        (jacobian_times(step_) + res_).cwiseAbs().maxCoeff() > 1e-6 * scale + 1e-12) {
+      step_ = dense_jacobian().partialPivLu().solve(-res_);
+      ++dense_solves_;
+    }
     return step_.allFinite();
+  }
+
+  // (L + G D P) v for a var-major vector v, without forming the matrix.
+  Eigen::VectorXd jacobian_times(const Eigen::VectorXd& v) const {
+    const int n = lay_.n;
+    Eigen::VectorXd out = g_ * (lay_.d * v.segment(2 * n, n));
+    for (int s = 0; s < n; ++s)
+      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
+        const int c = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        const Eigen::Vector3d x(v(c), v(n + c), v(2 * n + c));
+        out.segment<3>(3 * s) += blocks_[static_cast<std::size_t>(kBlocks * s + k)] * x;
+      }
+    return out;
   }
 
   // The dense Jacobian L + G D P (var-major columns), for the consistency test.
@@ -959,6 +982,7 @@ class CoupledSystem {
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                       // marching order of the stations
   Eigen::MatrixXd rhs_, pm_, cap_;
+  int dense_solves_ = 0;  // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
