@@ -467,7 +467,10 @@ class CoupledSystem {
   // large jump of the laminar/turbulent split throws Newton far off. A solve is converged only
   // when that limit is not active (transition_limited() false).
   static constexpr int kMaxTransitionMove = 2;
-  static constexpr double kTransitionHysteresis = 0.25;
+  // A band of 0.15 interval lengths: wide enough to stop the flipping, narrow enough that nearby
+  // shapes reach the same solution (at 0.25 a 1e-3 change of one CST coefficient could land a
+  // climb-point solution in another interval and change its cd by 10 %).
+  static constexpr double kTransitionHysteresis = 0.15;
   void assign_transition() {
     transition_limited_ = false;
     bool moved_mass = false;
