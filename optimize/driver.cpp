@@ -202,15 +202,51 @@ class Search {
     return xs;
   }
 
+  // The stencil's evaluations; a forward neighbour whose analysis failed is replaced by the
+  // backward one, and when that fails too its step is set to 0 (that gradient component is then
+  // taken as 0): a failed neighbour's penalty value would otherwise give the search a gradient
+  // that points nowhere.
+  std::vector<size_t> evaluated_stencil(const double* x, bool with_gradient,
+                                        std::vector<double>& steps) {
+    std::vector<size_t> idx = batch(stencil(x, with_gradient, steps));
+    if (!with_gradient || !history_[idx[0]].ok) return idx;
+    const std::vector<double> centre(x, x + n_);
+    std::vector<std::vector<double>> back;
+    std::vector<size_t> which;
+    for (size_t i = 0; i < n_; ++i) {
+      if (history_[idx[i + 1]].ok) continue;
+      std::vector<double> xi = centre;
+      xi[i] -= steps[i];
+      if (xi[i] < p_.lower[i] || xi[i] > p_.upper[i]) {
+        steps[i] = 0.0;
+        continue;
+      }
+      back.push_back(std::move(xi));
+      which.push_back(i);
+    }
+    if (back.empty()) return idx;
+    const std::vector<size_t> b = batch(back);
+    for (size_t k = 0; k < which.size(); ++k) {
+      const size_t i = which[k];
+      if (history_[b[k]].ok) {
+        idx[i + 1] = b[k];
+        steps[i] = back[k][i] - centre[i];
+      } else {
+        steps[i] = 0.0;
+      }
+    }
+    return idx;
+  }
+
   double objective(unsigned n, const double* x, double* grad) {
     check_limits();
     ++iterations_;
     std::vector<double> steps;
-    const auto idx = batch(stencil(x, grad != nullptr, steps));
+    const auto idx = evaluated_stencil(x, grad != nullptr, steps);
     const Evaluation& e = history_[idx[0]];
     if (grad)
       for (unsigned i = 0; i < n; ++i)
-        grad[i] = (history_[idx[i + 1]].objective - e.objective) / steps[i];
+        grad[i] = steps[i] != 0.0 ? (history_[idx[i + 1]].objective - e.objective) / steps[i] : 0.0;
     progress_line(e);
     write_checkpoint();
     return e.objective;
@@ -218,13 +254,16 @@ class Search {
 
   void constraints(unsigned m, double* result, unsigned n, const double* x, double* grad) {
     std::vector<double> steps;
-    const auto idx = batch(stencil(x, grad != nullptr, steps));
+    const auto idx = evaluated_stencil(x, grad != nullptr, steps);
     const Evaluation& e = history_[idx[0]];
     for (unsigned k = 0; k < m; ++k) result[k] = e.constraints[k];
     if (grad)
       for (unsigned k = 0; k < m; ++k)
         for (unsigned i = 0; i < n; ++i)
-          grad[k * n + i] = (history_[idx[i + 1]].constraints[k] - e.constraints[k]) / steps[i];
+          grad[k * n + i] =
+              steps[i] != 0.0
+                  ? (history_[idx[i + 1]].constraints[k] - e.constraints[k]) / steps[i]
+                  : 0.0;
   }
 
   void progress_line(const Evaluation& e) {
@@ -247,12 +286,32 @@ class Search {
     *s_.progress << line.str() << "\n" << std::flush;
   }
 
-  static double objective_cb(unsigned n, const double* x, double* grad, void* data) {
-    return static_cast<Search*>(data)->objective(n, x, grad);
+  // NLopt's variables: the design itself, or for the gradient-based methods the design scaled
+  // about the start, x = origin + kGradientScale z. Their first step is the negative gradient
+  // in these variables (identity Hessian), kGradientScale^2 times the gradient in coefficient
+  // units: about 0.01 per coefficient instead of a jump to the bounds, which threw the search
+  // into wavy, constraint-violating shapes it could not climb back from.
+  static constexpr double kGradientScale = 0.1;
+  const double* design_of(unsigned n, const double* z) {
+    if (!scaled_) return z;
+    design_.resize(n);
+    for (unsigned i = 0; i < n; ++i) design_[i] = origin_[i] + kGradientScale * z[i];
+    return design_.data();
   }
-  static void constraints_cb(unsigned m, double* result, unsigned n, const double* x, double* grad,
+
+  static double objective_cb(unsigned n, const double* z, double* grad, void* data) {
+    Search* s = static_cast<Search*>(data);
+    const double f = s->objective(n, s->design_of(n, z), grad);
+    if (grad && s->scaled_)
+      for (unsigned i = 0; i < n; ++i) grad[i] *= kGradientScale;
+    return f;
+  }
+  static void constraints_cb(unsigned m, double* result, unsigned n, const double* z, double* grad,
                              void* data) {
-    static_cast<Search*>(data)->constraints(m, result, n, x, grad);
+    Search* s = static_cast<Search*>(data);
+    s->constraints(m, result, n, s->design_of(n, z), grad);
+    if (grad && s->scaled_)
+      for (unsigned k = 0; k < m * n; ++k) grad[k] *= kGradientScale;
   }
 
   // Returns whether NLopt ended on its own tolerance.
@@ -275,8 +334,17 @@ class Search {
     }
     nlopt::srand(s_.options.seed);
     nlopt::opt opt(a, unsigned(n_));
-    opt.set_lower_bounds(p_.lower);
-    opt.set_upper_bounds(p_.upper);
+    scaled_ = a == nlopt::LD_SLSQP || a == nlopt::LD_MMA;
+    origin_ = x0;
+    std::vector<double> lower = p_.lower, upper = p_.upper, z0 = x0;
+    if (scaled_)
+      for (size_t i = 0; i < n_; ++i) {
+        lower[i] = (p_.lower[i] - x0[i]) / kGradientScale;
+        upper[i] = (p_.upper[i] - x0[i]) / kGradientScale;
+        z0[i] = 0.0;
+      }
+    opt.set_lower_bounds(lower);
+    opt.set_upper_bounds(upper);
     opt.set_min_objective(&Search::objective_cb, this);
     if (!p_.constraint_names.empty())
       opt.add_inequality_mconstraint(
@@ -289,7 +357,7 @@ class Search {
       for (size_t i = 0; i < n_; ++i) step[i] = 0.1 * (p_.upper[i] - p_.lower[i]);
       opt.set_initial_step(step);
     }
-    std::vector<double> x = x0;
+    std::vector<double> x = z0;
     double f = 0;
     try {
       const nlopt::result res = opt.optimize(x, f);
@@ -385,6 +453,8 @@ class Search {
   size_t n_;
   int threads_ = 1;
   std::vector<Evaluation> history_;
+  bool scaled_ = false;                 // see kGradientScale
+  std::vector<double> origin_, design_;  // start of the scaled variables; the current design
   std::map<std::vector<double>, size_t> cache_;
   std::map<std::vector<double>, Evaluation> replay_;
   Clock::time_point started_;

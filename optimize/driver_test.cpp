@@ -6,6 +6,7 @@
 #include <gtest/gtest.h>
 
 #include <atomic>
+#include <memory>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -137,11 +138,12 @@ TEST(Driver, AThrowingAnalysisIsAFailureNotACrash) {
   Quadratic q;
   SearchProblem p = q.problem();
   auto inner = p.evaluate;
-  p.evaluate = [inner](const std::vector<double>& x) -> Evaluation {
-    if (x[0] > 0.7) throw std::runtime_error("solver blew up");
+  auto calls = std::make_shared<std::atomic<int>>(0);
+  p.evaluate = [inner, calls](const std::vector<double>& x) -> Evaluation {
+    if (++*calls == 5) throw std::runtime_error("solver blew up");
     return inner(x);
   };
-  // The first step from (-1, -1) overshoots into the region where the analysis throws.
+  // The fifth analysis (one of the second iteration's designs) throws.
   const SearchResult r = run_search(p, settings(Algorithm::slsqp));
   int thrown = 0;
   for (const auto& e : r.history)
