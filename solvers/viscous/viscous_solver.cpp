@@ -451,6 +451,15 @@ class CoupledSystem {
     return transition_ctau_root(k);
   }
 
+  // Before each Newton step: move the stagnation node to where the speed changes sign (the BL
+  // positions of both sides shift with it), then decide the layer kinds.
+  void prepare_iteration() {
+    bool moved = false;
+    for (int move = 0; move < 40 && relocate_stagnation(); ++move) moved = true;
+    if (moved) take_transition_from_kinds();
+    assign_transition();
+  }
+
   // turbulent_c and its derivatives with respect to the station's (c, theta, delta*, ue).
   std::array<double, 5> turbulent_c_linearized(int i, const StationState& s) const {
     if (kinds_[i] != LayerKind::kLaminar) return {s.c, 1.0, 0.0, 0.0, 0.0};
@@ -664,7 +673,8 @@ class CoupledSystem {
       }
       if (self < 0) return false;
       const Eigen::PartialPivLU<Eigen::Matrix3d> lu(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
-      rows = lu.solve(Eigen::MatrixXd(rows));
+      block_rhs_ = rows;  // a solve cannot alias its right-hand side
+      rows = lu.solve(block_rhs_);
     }
     return b.allFinite();
   }
@@ -985,6 +995,7 @@ class CoupledSystem {
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                       // marching order of the stations
   Eigen::MatrixXd rhs_, pm_, cap_;
+  mutable Eigen::MatrixXd block_rhs_;  // 3 by (n + 1) scratch of solve_lower
   int dense_solves_ = 0;  // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
   Eigen::VectorXd c_, th_, mu_, ue_;
@@ -1010,11 +1021,7 @@ JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
   sys.update_edge_velocity();
   sys.mark_ue_valid();
   for (int it = 0; it <= newton_steps; ++it) {
-    bool moved = false;
-    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) moved = true;
-    // The BL positions of both sides shift with the stagnation node.
-    if (moved) sys.take_transition_from_kinds();
-    sys.assign_transition();
+    sys.prepare_iteration();
     sys.assemble();
     if (it < newton_steps) sys.newton_step();
   }
@@ -1083,11 +1090,7 @@ ViscousResult ViscousSolver::solve_from(double alpha_deg, const ViscousState* wa
   bool done = false;
   int it = 0;
   for (; it < options_.max_iterations; ++it) {
-    bool moved = false;
-    for (int move = 0; move < 40 && sys.relocate_stagnation(); ++move) moved = true;
-    // The BL positions of both sides shift with the stagnation node.
-    if (moved) sys.take_transition_from_kinds();
-    sys.assign_transition();
+    sys.prepare_iteration();
     r = sys.assemble();
     res.residual_history.push_back(r);
     if (!std::isfinite(r)) break;
