@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "geometry/panelling.h"
+#include "solvers/viscous/polar.h"
 #include "solvers/viscous/viscous_solver.h"
 
 namespace fulmar::optimize {
@@ -53,65 +54,76 @@ Points nodes_for(const Section& section, int panels) {
 }
 
 // cl_max: march up in angle with warm starts, 2 deg at a time from 4 deg, until cl falls or two
-// points in a row fail (beyond a converged maximum), then a parabola through the best converged
-// point and its two neighbours; the peak is refined by one more solve at the parabola's vertex.
-// A cl still rising at 26 deg is reported as not found (with the largest value seen).
+// points in a row fail (beyond a converged maximum). A maximum with converged neighbours on both
+// sides is refined by golden-section search (viscous::refine_cl_max) to a bracket of
+// viscous::kClMaxRefineWidth: there cl is within about 1e-4 of the solver's own peak, so the value
+// changes smoothly with the shape and the optimizer's finite differences see the shape's effect,
+// not where the 2-deg grid happens to fall (a parabola through grid points jumped by up to 0.01
+// when the best grid point changed). When the solutions stop converging beyond the best point,
+// the march goes on from it in 0.5-deg steps and the last converged value is cl_max (a lower
+// bound: stall and solver failure cannot be told apart). A cl still rising at 26 deg is reported
+// as not found (with the largest value seen).
 ClMaxResult find_cl_max(const viscous::ViscousSolver& solver) {
   ClMaxResult out;
-  viscous::ViscousResult previous;
-  const viscous::ViscousState* warm = nullptr;
-  std::vector<std::pair<double, double>> samples;  // (alpha, cl), converged, increasing alpha
+  std::vector<viscous::ViscousResult> done;  // converged, increasing alpha
+  done.reserve(32);
   int failures = 0;
   for (double alpha = 4.0; alpha <= 26.0; alpha += 2.0) {
-    viscous::ViscousResult r = solver.solve_alpha(alpha, warm);
+    viscous::ViscousResult r =
+        solver.solve_alpha(alpha, done.empty() ? nullptr : &done.back().state);
     if (!r.converged) {
-      if (++failures >= 2 && samples.size() >= 2) break;
+      if (++failures >= 2 && done.size() >= 2) break;
       continue;
     }
     failures = 0;
-    samples.emplace_back(alpha, r.cl);
-    previous = std::move(r);
-    warm = &previous.state;
-    if (samples.size() >= 3 && samples.back().second < samples[samples.size() - 2].second) break;
+    done.push_back(std::move(r));
+    const std::size_t n = done.size();
+    if (n >= 3 && done[n - 1].cl < done[n - 2].cl) break;
   }
-  if (samples.size() < 2) {
+  if (done.size() < 2) {
     out.reason = "fewer than two converged points in the angle sweep 4..26 deg";
     return out;
   }
   std::size_t best = 0;
-  for (std::size_t i = 1; i < samples.size(); ++i)
-    if (samples[i].second > samples[best].second) best = i;
-  out.cl_max = samples[best].second;
-  out.alpha_deg = samples[best].first;
-  if (best + 1 == samples.size()) {
+  for (std::size_t i = 1; i < done.size(); ++i)
+    if (done[i].cl > done[best].cl) best = i;
+  out.cl_max = done[best].cl;
+  out.alpha_deg = done[best].alpha;
+  out.found = true;
+  if (best + 1 == done.size()) {
     if (failures == 0) {
+      out.found = false;
       out.reason = "no peak of cl up to 26 deg";
       return out;
     }
-    // The analysis stops converging beyond the last point: the peak lies there (the flow
-    // separates); report the last converged value as cl_max.
-    out.found = true;
-    return out;
-  }
-  if (best == 0) {
-    out.found = true;
-    return out;
-  }
-  const auto [a0, c0] = samples[best - 1];
-  const auto [a1, c1] = samples[best];
-  const auto [a2, c2] = samples[best + 1];
-  const double denom = (a0 - a1) * (a0 - a2) * (a1 - a2);
-  const double pa = (a2 * (c1 - c0) + a1 * (c0 - c2) + a0 * (c2 - c1)) / denom;
-  const double pb = (a2 * a2 * (c0 - c1) + a1 * a1 * (c2 - c0) + a0 * a0 * (c1 - c2)) / denom;
-  out.found = true;
-  if (pa < 0) {
-    const double vertex = std::clamp(-pb / (2 * pa), a0, a2);
-    const viscous::ViscousResult r = solver.solve_alpha(vertex, warm);
-    if (r.converged && r.cl > out.cl_max) {
-      out.cl_max = r.cl;
-      out.alpha_deg = vertex;
+    // The solutions stop converging beyond the best point: creep on in 0.5-deg steps.
+    viscous::ViscousResult last = done[best];
+    for (double alpha = last.alpha + 0.5; alpha < last.alpha + 2.0 - 1e-9; alpha += 0.5) {
+      viscous::ViscousResult r = solver.solve_from(alpha, &last.state);
+      if (!r.converged || r.cl <= last.cl) break;
+      last = std::move(r);
     }
+    out.cl_max = last.cl;
+    out.alpha_deg = last.alpha;
+    return out;
   }
+  if (best == 0) return out;
+  viscous::PolarSummary summary;
+  summary.has_cl_max = summary.cl_max_bracketed = true;
+  summary.cl_max = out.cl_max;
+  summary.alpha_cl_max = out.alpha_deg;
+  const std::vector<viscous::ViscousResult> known(done.begin() + static_cast<long>(best) - 1,
+                                                  done.begin() + static_cast<long>(best) + 2);
+  viscous::refine_cl_max(
+      known,
+      [&solver](double alpha, const viscous::ViscousState* warm) {
+        // With solve_alpha's fallbacks: a failed solve inside the bracket would steer the search
+        // away from the peak (seen at 200 panels as drops of 0.017 between shapes 1e-3 apart).
+        return solver.solve_alpha(alpha, warm);
+      },
+      summary);
+  out.cl_max = summary.cl_max;
+  out.alpha_deg = summary.alpha_cl_max;
   return out;
 }
 
@@ -146,8 +158,7 @@ class ViscousEvaluator final : public SectionEvaluator {
   }
 
   std::vector<PointResult> polar(const Section& section, const FlowCondition& flow,
-                                 const std::vector<double>& alphas_deg,
-                                 int panels) const override {
+                                 const std::vector<double>& alphas_deg, int panels) const override {
     std::vector<PointResult> out(alphas_deg.size());
     try {
       const viscous::ViscousSolver solver(nodes_for(section, panels), options_for(flow));
@@ -192,6 +203,8 @@ std::unique_ptr<SectionEvaluator> make_viscous_evaluator() {
   return std::make_unique<ViscousEvaluator>();
 }
 
-std::string viscous_unavailable_reason() { return {}; }
+std::string viscous_unavailable_reason() {
+  return {};
+}
 
 }  // namespace fulmar::optimize
