@@ -293,11 +293,6 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
   const double tol = c.optimizer.constraint_tol;
 
   // Re-verification: fresh analyses with finer panels of the baseline and the chosen design.
-  const int chosen = r.best >= 0 ? r.best : r.best_any;
-  const std::vector<double> x_opt = chosen >= 0 ? r.history[size_t(chosen)].x : space.start;
-  if (options.progress)
-    *options.progress << "verifying the optimum with " << c.analysis.verify_panels << " panels\n"
-                      << std::flush;
   // A verification that does not converge at verify_panels is repeated with a few more panels
   // (a different discretisation of the same section); the panel count used is in the summary.
   auto verify = [&](const std::vector<double>& x) {
@@ -308,8 +303,46 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
     }
     return e;
   };
+  // The search's best feasible design usually sits on a constraint boundary (cl_max, most
+  // often), where the finer verification can land just outside it. So the search-feasible designs
+  // are verified in order of objective, up to kVerifyCandidates of them, and the first that the
+  // verification finds feasible is the optimum; when none is, the best one is reported as it
+  // verified (infeasible). Deterministic in the history, so a resumed run chooses the same.
+  std::vector<int> candidates;
+  for (int i = 0; i < static_cast<int>(r.history.size()); ++i)
+    if (r.history[size_t(i)].ok && worst_constraint(r.history[size_t(i)]) <= tol)
+      candidates.push_back(i);
+  std::stable_sort(candidates.begin(), candidates.end(), [&](int a, int b) {
+    return r.history[size_t(a)].objective < r.history[size_t(b)].objective;
+  });
+  if (candidates.size() > kVerifyCandidates) candidates.resize(kVerifyCandidates);
+  if (candidates.empty()) candidates.push_back(r.best_any);  // -1: the baseline
   const Evaluation base_v = verify(space.start);
-  const Evaluation opt_v = verify(x_opt);
+  std::vector<double> x_opt;
+  Evaluation opt_v;
+  json verified = json::array();
+  for (size_t k = 0; k < candidates.size(); ++k) {
+    const int i = candidates[k];
+    const std::vector<double> x = i >= 0 ? r.history[size_t(i)].x : space.start;
+    if (options.progress)
+      *options.progress << "verifying " << (k == 0 ? "the optimum" : "the next-best design")
+                        << " (evaluation " << i + 1 << ") with " << c.analysis.verify_panels
+                        << " panels\n"
+                        << std::flush;
+    Evaluation e = verify(x);
+    const bool ok = e.ok && worst_constraint(e) <= tol;
+    verified.push_back(
+        {{"evaluation", i + 1},
+         {"search_objective", i >= 0 ? json(r.history[size_t(i)].objective) : json(nullptr)},
+         {"verified_objective", e.ok ? json(e.objective) : json(nullptr)},
+         {"feasible", ok},
+         {"status", e.status}});
+    if (k == 0 || ok) {
+      x_opt = x;
+      opt_v = std::move(e);
+    }
+    if (ok) break;
+  }
   const CstShape opt_shape = space.shape(x_opt);
   const bool feasible = opt_v.ok && worst_constraint(opt_v) <= tol;
 
@@ -519,6 +552,7 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
   summary["constraints"] = constraints;
   summary["feasible"] = feasible;
   summary["evaluations"] = r.history.size();
+  summary["verified_candidates"] = verified;
   summary["failed_evaluations"] = failed;
   summary["iterations"] = r.iterations;
   summary["converged"] = r.converged;
@@ -566,7 +600,15 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
       << " analyses (" << failed << " failed), " << r.stop_reason
       << (r.interrupted ? " (interrupted)" : "") << ". Verification with "
       << c.analysis.verify_panels << " panels (search: " << c.analysis.panels
-      << "). Analysis: " << evaluator.description() << ".\n\n";
+      << "). Analysis: " << evaluator.description() << ".";
+    if (verified.size() > 1 && feasible)
+      m << " The " << verified.size() - 1
+        << " better design(s) of the search did not meet every constraint when verified; the "
+           "result is the best one that did.";
+    else if (verified.size() > 1)
+      m << " None of the " << verified.size()
+        << " best designs of the search met every constraint when verified; the best is shown.";
+    m << "\n\n";
     m << "| point | section | alpha (deg) | cl | cd | cm c/4 | transition up / low "
          "|\n|---|---|---|---|---|---|---|\n";
     for (int k = 0; k < 2; ++k) {

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <exception>
+#include <optional>
 #include <sstream>
 
 #include "geometry/panelling.h"
@@ -68,9 +69,17 @@ ClMaxResult find_cl_max(const viscous::ViscousSolver& solver) {
   std::vector<viscous::ViscousResult> done;  // converged, increasing alpha
   done.reserve(32);
   int failures = 0;
+  // A lead-in from 0 deg when the cold start at 4 deg fails (seen on aft-loaded laminar shapes
+  // whose cold march at 4 deg separates): its state warm-starts the march.
+  std::optional<viscous::ViscousResult> lead_in;
   for (double alpha = 4.0; alpha <= 26.0; alpha += 2.0) {
-    viscous::ViscousResult r =
-        solver.solve_alpha(alpha, done.empty() ? nullptr : &done.back().state);
+    const viscous::ViscousState* warm = done.empty() ? nullptr : &done.back().state;
+    if (!warm && lead_in && lead_in->converged) warm = &lead_in->state;
+    viscous::ViscousResult r = solver.solve_alpha(alpha, warm);
+    if (!r.converged && done.empty() && !lead_in) {
+      lead_in = solver.solve_alpha(0.0, nullptr);
+      if (lead_in->converged) r = solver.solve_alpha(alpha, &lead_in->state);
+    }
     if (!r.converged) {
       if (++failures >= 2 && done.size() >= 2) break;
       continue;
