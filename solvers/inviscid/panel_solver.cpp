@@ -361,24 +361,44 @@ void InviscidSolver::solve_for_cl(double cl_target, InviscidResult& out) const {
   }
 }
 
-Vector2d InviscidSolver::velocity_at(double alpha_rad, const Vector2d& point) const {
-  const int n = panel_count();
-  VectorXd q;
-  surface_speed(alpha_rad, q);
+namespace {
+
+// Velocity / V_inf at `point` from the surface speeds q (#nodes), the section panels' frames
+// (N, then the trailing-edge gap panel unless sharp) and the gap panel's coefficients.
+Vector2d field_velocity(double alpha_rad, const VectorXd& q,
+                        const std::vector<panel::Frame>& frames, bool sharp, double cn, double cs,
+                        const Vector2d& point) {
+  const int n = static_cast<int>(q.size()) - 1;
   Vector2d v(std::cos(alpha_rad), std::sin(alpha_rad));
   for (int j = 0; j < n; ++j) {
-    const panel::Frame f = panel::frame(row(nodes_, j), row(nodes_, j + 1));
     Vector2d va, vb;
-    panel::velocity_vortex_linear(f, point, 1.0, va, vb);
+    panel::velocity_vortex_linear(frames[j], point, 1.0, va, vb);
     v += q(j) * va + q(j + 1) * vb;
   }
-  if (!sharp_) {
-    const panel::Frame f = panel::frame(row(nodes_, n), row(nodes_, 0));
+  if (!sharp) {
+    const panel::Frame& f = frames[n];
     const double dq = q(0) - q(n);
-    v += cn_ * dq * panel::velocity_source_constant(f, point, 1.0) -
-         cs_ * dq * panel::velocity_vortex_constant(f, point, 1.0);
+    v += cn * dq * panel::velocity_source_constant(f, point, 1.0) -
+         cs * dq * panel::velocity_vortex_constant(f, point, 1.0);
   }
   return v;
+}
+
+}  // namespace
+
+std::vector<panel::Frame> InviscidSolver::section_frames() const {
+  const int n = panel_count();
+  std::vector<panel::Frame> frames;
+  frames.reserve(n + 1);
+  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
+  if (!sharp_) frames.push_back(panel::frame(row(nodes_, n), row(nodes_, 0)));
+  return frames;
+}
+
+Vector2d InviscidSolver::velocity_at(double alpha_rad, const Vector2d& point) const {
+  VectorXd q;
+  surface_speed(alpha_rad, q);
+  return field_velocity(alpha_rad, q, section_frames(), sharp_, cn_, cs_, point);
 }
 
 Points InviscidSolver::wake_trajectory(double alpha_rad) const {
@@ -408,18 +428,50 @@ Points InviscidSolver::wake_trajectory(double alpha_rad) const {
   Vector2d p = te_mid_ + ds0 * te_bisector_;
   wake.row(1) = p.transpose();
   double ds = ds0;
+  // velocity_at with the speeds and panel frames computed once for the whole trajectory.
+  VectorXd q;
+  surface_speed(alpha_rad, q);
+  const std::vector<panel::Frame> frames = section_frames();
+  auto velocity = [&](const Vector2d& point) {
+    return field_velocity(alpha_rad, q, frames, sharp_, cn_, cs_, point);
+  };
   for (int k = 2; k < nw; ++k) {
     ds *= g;
-    const Vector2d d1 = velocity_at(alpha_rad, p).normalized();
+    const Vector2d d1 = velocity(p).normalized();
     const Vector2d pred = p + ds * d1;
-    const Vector2d d2 = velocity_at(alpha_rad, pred).normalized();
+    const Vector2d d2 = velocity(pred).normalized();
     p += ds * (d1 + d2).normalized();
     wake.row(k) = p.transpose();
   }
   return wake;
 }
 
-CouplingModel InviscidSolver::coupling_model(double alpha_rad) const {
+SurfaceSourceResponse InviscidSolver::surface_source_response() const {
+  const int n = panel_count();
+  const int ns = n + 1;
+  std::vector<panel::Frame> frames;
+  frames.reserve(n);
+  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
+  MatrixXd b = MatrixXd::Zero(n + 2, n);
+  VectorXd ln_r(ns);
+  for (int i = 0; i <= n; ++i) {
+    const Vector2d p = row(nodes_, i);
+    for (int j = 0; j < ns; ++j)
+      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
+    for (int j = 0; j < n; ++j)
+      b(i, j) = -panel::psi_source_constant(frames[j], p, ln_r(j), ln_r(j + 1), panel::Cut::kRight);
+  }
+  if (sharp_) {
+    b.row(0).setZero();
+    b.row(n).setZero();
+  }
+  SurfaceSourceResponse out;
+  out.dgamma = lu_.solve(b);
+  return out;
+}
+
+CouplingModel InviscidSolver::coupling_model(double alpha_rad,
+                                             const SurfaceSourceResponse* surface) const {
   const int n = panel_count();
   const int ns = n + 1;
   CouplingModel m;
@@ -442,28 +494,34 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad) const {
   for (int k = 0; k < npw; ++k)
     m.arc_length(ns + k + 1) = m.arc_length(ns + k) + frames[nps + k].length;
 
-  // Stream function of unit panel sources at the nodes -> change of the vortex strengths.
-  MatrixXd b = MatrixXd::Zero(n + 2, np);
+  // Stream function of unit panel sources at the nodes -> change of the vortex strengths. The
+  // surface panels' part does not depend on the angle (given precomputed, or solved here).
+  const bool pre = surface && surface->dgamma.rows() == n + 2 && surface->dgamma.cols() == n;
+  const int first = pre ? nps : 0;  // first panel solved for here
+  MatrixXd b = MatrixXd::Zero(n + 2, np - first);
   VectorXd ln_r(ns + nw);  // ln of the distances from the field node to every station
   for (int i = 0; i <= n; ++i) {
     const Vector2d p = row(nodes_, i);
-    for (int j = 0; j < ns; ++j)
-      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
+    if (!pre)
+      for (int j = 0; j < ns; ++j)
+        ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
     for (int k = 0; k < nw; ++k)
       ln_r(ns + k) = panel::half_log_distance_squared(p, row(m.wake, k), chord_);
-    for (int j = 0; j < nps; ++j) {
+    for (int j = first; j < nps; ++j) {
       b(i, j) = -panel::psi_source_constant(frames[j], p, ln_r(j), ln_r(j + 1), panel::Cut::kRight);
     }
     for (int k = 0; k < npw; ++k) {
-      b(i, nps + k) = -panel::psi_source_constant(frames[nps + k], p, ln_r(ns + k),
-                                                  ln_r(ns + k + 1), panel::Cut::kForward);
+      b(i, nps + k - first) = -panel::psi_source_constant(frames[nps + k], p, ln_r(ns + k),
+                                                          ln_r(ns + k + 1), panel::Cut::kForward);
     }
   }
   if (sharp_) {
     b.row(0).setZero();
     b.row(n).setZero();
   }
-  const MatrixXd dgamma = lu_.solve(b);  // (n+2) by np: d gamma / d sigma
+  MatrixXd dgamma(n + 2, np);  // d gamma / d sigma
+  if (pre) dgamma.leftCols(nps) = surface->dgamma;
+  dgamma.rightCols(np - first) = lu_.solve(b);
 
   // Wake-node velocities: free stream + vortex sheet + gap panel + sources.
   VectorXd q;

@@ -25,10 +25,14 @@
 #include <Eigen/LU>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 #include "geometry/section.h"
 
 namespace fulmar {
+namespace panel {
+struct Frame;
+}
 
 struct InviscidOptions {
   // Free-stream Mach number for the Karman-Tsien correction, 0 <= mach <= 0.8 (0: incompressible).
@@ -105,6 +109,14 @@ struct CouplingModel {
   Eigen::MatrixXd mass_influence;  // D, #stations by #stations: d(edge_velocity_i)/d(m_j)
 };
 
+// The part of the coupling model that does not depend on the angle of attack: the change of the
+// vortex strengths (and of the trailing-edge unknown) per unit constant source on each surface
+// panel, through the factored system. (N+2) by N. Build once per shape (O(N^3)) and pass it to
+// coupling_model for every angle.
+struct SurfaceSourceResponse {
+  Eigen::MatrixXd dgamma;
+};
+
 class InviscidSolver {
  public:
   // Builds and factors the system for `nodes` (#nodes by 2, counter-clockwise as above, at least 9
@@ -131,8 +143,13 @@ class InviscidSolver {
   Points wake_trajectory(double alpha_rad) const;
 
   // Coupling data at `alpha_rad` (wake trajectory, inviscid edge velocities, D). O(n^3): build it
-  // once per shape and angle (or wake), not per Newton step.
-  CouplingModel coupling_model(double alpha_rad) const;
+  // once per shape and angle (or wake), not per Newton step. With `surface` (from
+  // surface_source_response() of this solver) only the wake panels' sources are solved for:
+  // O(n^2 #wake nodes); the result is the same to round-off.
+  CouplingModel coupling_model(double alpha_rad,
+                               const SurfaceSourceResponse* surface = nullptr) const;
+  // The angle-independent part of coupling_model (see SurfaceSourceResponse).
+  SurfaceSourceResponse surface_source_response() const;
 
   // A full re-solve with given panel sources (the reference for D): constant `sigma` on the N
   // surface panels then on the #wake-1 panels of `wake` (#wake by 2, as from wake_trajectory).
@@ -157,6 +174,8 @@ class InviscidSolver {
 
  private:
   void surface_speed(double alpha_rad, Eigen::VectorXd& q) const;
+  // Frames of the N section panels, then of the trailing-edge gap panel (unless sharp).
+  std::vector<panel::Frame> section_frames() const;
   Points nodes_;
   InviscidOptions options_;
   Eigen::PartialPivLU<Eigen::MatrixXd> lu_;

@@ -269,10 +269,12 @@ Points opened(const Points& closed, double gap) {
 
 // D must equal the derivative of a full re-solve with the sources S m (the system is linear,
 // so central differences are exact up to round-off: 1e-7 relative to the column's largest entry
-// is far above round-off, ~1e-12, and far below any missing term).
-void check_mass_influence(const Points& nodes, double alpha) {
+// is far above round-off, ~1e-12, and far below any missing term). With `precomputed` the model
+// is built on the angle-independent surface-source response, which must not change the check.
+void check_mass_influence(const Points& nodes, double alpha, bool precomputed = false) {
   const InviscidSolver solver(nodes);
-  const CouplingModel m = solver.coupling_model(alpha);
+  const SurfaceSourceResponse surface = solver.surface_source_response();
+  const CouplingModel m = solver.coupling_model(alpha, precomputed ? &surface : nullptr);
   const int ns = m.surface_nodes, nw = m.wake_nodes, n = ns - 1;
   ASSERT_EQ(m.mass_influence.rows(), ns + nw);
   ASSERT_EQ(m.mass_influence.cols(), ns + nw);
@@ -311,6 +313,29 @@ TEST(InviscidCoupling, MassInfluenceMatchesResolveSharpEdge) {
 
 TEST(InviscidCoupling, MassInfluenceMatchesResolveOpenEdge) {
   check_mass_influence(opened(kCases[1].kt.nodes(120), 0.02), deg(4.0));
+}
+
+// The precomputed surface part (one per shape) serves every angle.
+TEST(InviscidCoupling, PrecomputedSurfaceSourcesMatchResolve) {
+  for (double a : {-6.0, 4.0, 12.0}) {
+    check_mass_influence(kCases[1].kt.nodes(120), deg(a), true);
+    check_mass_influence(opened(kCases[1].kt.nodes(120), 0.02), deg(a), true);
+  }
+}
+
+// Same model with and without the precomputed part: one computation reordered, so equal to
+// round-off (1e-12 of the largest entry; the factored system's rcond ~ 1e-7 amplifies 1e-16).
+TEST(InviscidCoupling, PrecomputedSurfaceSourcesGiveTheSameModel) {
+  const InviscidSolver solver(opened(kCases[1].kt.nodes(120), 0.02));
+  const SurfaceSourceResponse surface = solver.surface_source_response();
+  for (double a : {-6.0, 4.0}) {
+    const CouplingModel full = solver.coupling_model(deg(a));
+    const CouplingModel pre = solver.coupling_model(deg(a), &surface);
+    const double scale = full.mass_influence.cwiseAbs().maxCoeff();
+    EXPECT_LT((full.mass_influence - pre.mass_influence).cwiseAbs().maxCoeff(), 1e-12 * scale);
+    EXPECT_LT((full.edge_velocity - pre.edge_velocity).cwiseAbs().maxCoeff(), 1e-12);
+    EXPECT_EQ((full.wake - pre.wake).cwiseAbs().maxCoeff(), 0.0);
+  }
 }
 
 // The wake is a streamline: its segments follow the local velocity (Heun steps of error

@@ -40,13 +40,16 @@ double wake_gap(double h, double distance) {
   return h * (1.0 - t) * (1.0 - t) * (1.0 + 2.0 * t);
 }
 
+using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
+
 // Everything about one solve that depends on the angle and the stagnation node.
 struct Layout {
   int n_surface = 0, n_wake = 0, n = 0;  // stations
   int stag = 0;                          // upper-side first node; lower-side first is stag + 1
   Eigen::VectorXd sign;                  // +1 upper and wake, -1 lower
   Eigen::VectorXd ue_inviscid;           // boundary-layer sense (> 0 downstream)
-  Eigen::MatrixXd d;                     // D in boundary-layer sense: sign_i sign_j D_ij
+  // D in boundary-layer sense: sign_i sign_j D_ij (row-major: the Newton solve combines its rows)
+  RowMatrix d;
   Eigen::VectorXd s;                     // arc length: surface from node 0, wake from TE
   Eigen::VectorXd gap;                   // wake base thickness per station (0 on the surface)
   Eigen::VectorXd x;                     // x/c of the surface nodes
@@ -135,6 +138,11 @@ ViscousSolver::ViscousSolver(const Points& nodes, const ViscousOptions& options)
   flow_.reynolds = options.reynolds;
   flow_.mach = options.mach;
   flow_.n_crit = options.n_crit;
+  surface_response_ = inviscid_.surface_source_response();
+}
+
+CouplingModel ViscousSolver::model_at(double alpha_deg) const {
+  return inviscid_.coupling_model(alpha_deg * kDeg, &surface_response_);
 }
 
 namespace {
@@ -160,7 +168,10 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j)
       lay_.gap(lay_.n_surface + j) = wake_gap(te_gap_, lay_.s(lay_.n_surface + j));
     const int n3 = 3 * lay_.n;
-    g_.resize(n3, lay_.n);
+    g_count_.assign(static_cast<std::size_t>(n3), 0);
+    g_col_.assign(static_cast<std::size_t>(kSpeedTerms * n3), 0);
+    g_val_.assign(static_cast<std::size_t>(kSpeedTerms * n3), 0.0);
+    g_spill_.reserve(16);
     blocks_.resize(static_cast<std::size_t>(kBlocks * lay_.n));
     block_station_.assign(static_cast<std::size_t>(kBlocks * lay_.n), -1);
     block_count_.assign(static_cast<std::size_t>(lay_.n), 0);
@@ -270,7 +281,10 @@ class CoupledSystem {
   }
 
   // Edge velocities from the current mass defects.
-  void update_edge_velocity() { ue_ = lay_.ue_inviscid + lay_.d * mu_; }
+  void update_edge_velocity() {
+    ue_.noalias() = lay_.d * mu_;
+    ue_ += lay_.ue_inviscid;
+  }
 
   // Moves the stagnation node when a first station's speed has turned; returns true if moved.
   bool relocate_stagnation() {
@@ -631,8 +645,38 @@ class CoupledSystem {
     add_speed(r, i, coef);
   }
 
-  // Adds dR/d(ue_i) = coef to row r (through ue = ue_inv + D m).
-  void add_speed(int r, int i, double coef) { g_(r, i) += coef; }
+  // Adds dR/d(ue_i) = coef to row r (through ue = ue_inv + D m). G is sparse: an equation sees
+  // the speeds of its interval's two stations and of the two nodes around the stagnation point,
+  // at most kSpeedTerms columns (anything beyond goes to g_spill_, not expected).
+  static constexpr int kSpeedTerms = 4;
+  void add_speed(int r, int i, double coef) {
+    const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
+    int& count = g_count_[static_cast<std::size_t>(r)];
+    for (int k = 0; k < count; ++k)
+      if (g_col_[base + k] == i) {
+        g_val_[base + k] += coef;
+        return;
+      }
+    if (count < kSpeedTerms) {
+      g_col_[base + count] = i;
+      g_val_[base + count] = coef;
+      ++count;
+      return;
+    }
+    g_spill_.push_back({r, i, coef});
+  }
+  struct SpeedTerm {
+    int row = 0, col = 0;
+    double value = 0.0;
+  };
+  // Calls f(row, column, value) for every entry of G.
+  template <class F>
+  void for_each_speed_term(F&& f) const {
+    for (std::size_t r = 0; r < g_count_.size(); ++r)
+      for (int k = 0; k < g_count_[r]; ++k)
+        f(static_cast<int>(r), g_col_[kSpeedTerms * r + k], g_val_[kSpeedTerms * r + k]);
+    for (const SpeedTerm& t : g_spill_) f(t.row, t.col, t.value);
+  }
 
   static constexpr int kBlocks = 3;
   // The L block of the equations of station `row` in the unknowns of station `col`.
@@ -657,10 +701,12 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j) order.push_back(lay_.n_surface + j);
   }
 
-  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns).
-  bool solve_lower(Eigen::MatrixXd& b) const {
+  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns). Every
+  // operation runs along whole rows of B (contiguous in row-major storage): the off-diagonal
+  // blocks as row updates, the diagonal block by Gaussian elimination with partial pivoting.
+  bool solve_lower(RowMatrix& b) const {
     for (int s : order_) {
-      auto rows = b.middleRows(3 * s, 3);
+      auto rows = b.middleRows<3>(3 * s);
       const int count = block_count_[static_cast<std::size_t>(s)];
       int self = -1;
       for (int k = 0; k < count; ++k) {
@@ -669,39 +715,80 @@ class CoupledSystem {
           self = k;
           continue;
         }
-        rows.noalias() -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] * b.middleRows(3 * j, 3);
+        const Eigen::Matrix3d& m = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
+        const auto src = b.middleRows<3>(3 * j);
+        for (int e = 0; e < 3; ++e)
+          rows.row(e) -= m(e, 0) * src.row(0) + m(e, 1) * src.row(1) + m(e, 2) * src.row(2);
       }
       if (self < 0) return false;
-      const Eigen::PartialPivLU<Eigen::Matrix3d> lu(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
-      block_rhs_ = rows;  // a solve cannot alias its right-hand side
-      rows = lu.solve(block_rhs_);
+      Eigen::Matrix3d a = blocks_[static_cast<std::size_t>(kBlocks * s + self)];
+      int p[3] = {0, 1, 2};  // row of a (and of `rows`) that holds pivot k
+      for (int k = 0; k < 3; ++k) {
+        int best = k;
+        for (int i = k + 1; i < 3; ++i)
+          if (std::abs(a(p[i], k)) > std::abs(a(p[best], k))) best = i;
+        std::swap(p[k], p[best]);
+        for (int i = k + 1; i < 3; ++i) {
+          const double f = a(p[i], k) / a(p[k], k);
+          if (f == 0.0) continue;
+          for (int c = k + 1; c < 3; ++c) a(p[i], c) -= f * a(p[k], c);
+          rows.row(p[i]) -= f * rows.row(p[k]);
+        }
+      }
+      for (int k = 2; k >= 0; --k) {
+        block_rhs_.row(k) = rows.row(p[k]);
+        for (int c = k + 1; c < 3; ++c) block_rhs_.row(k) -= a(p[k], c) * block_rhs_.row(c);
+        block_rhs_.row(k) /= a(p[k], k);
+      }
+      rows = block_rhs_;
     }
-    return b.allFinite();
+    return Eigen::Map<const Eigen::VectorXd>(b.data(), b.size()).allFinite();
   }
 
   // The Newton step for the current Jacobian and residuals into step_ (var-major: c, theta, m
   // blocks of #stations each); false when the system is singular.
+  //
+  // With W = L^-1 G D (3 #stations by #stations) and z0 = -L^-1 r, the step is dx = z0 - W dm,
+  // where the mass-defect part dm solves (I + P W) dm = P z0. G is sparse, so G D costs
+  // O(n^2) (a few rows of D per equation) and the block solve through L is O(n^2); only the LU
+  // of the #stations-square capacitance matrix is O(n^3).
   bool solve_newton() {
     const int n = lay_.n;
     march_order(order_);
-    // Right-hand sides: the residuals (station-major) and the columns of G.
     rhs_.resize(3 * n, n + 1);
-    for (int i = 0; i < n; ++i)
-      for (int e = 0; e < 3; ++e) rhs_(3 * i + e, 0) = -res_(3 * i + e);
-    rhs_.rightCols(n) = g_;
+    rhs_.col(0) = -res_;
+    for (int r = 0; r < 3 * n; ++r) {
+      const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
+      auto w = rhs_.row(r).tail(n);
+      const int count = g_count_[static_cast<std::size_t>(r)];
+      if (count == 0) w.setZero();
+      for (int k = 0; k < count; ++k) {
+        if (k == 0)
+          w = g_val_[base] * lay_.d.row(g_col_[base]);
+        else
+          w += g_val_[base + k] * lay_.d.row(g_col_[base + k]);
+      }
+    }
+    for (const SpeedTerm& t : g_spill_) rhs_.row(t.row).tail(n) += t.value * lay_.d.row(t.col);
+    block_rhs_.resize(3, n + 1);
     if (!solve_lower(rhs_)) rhs_.setConstant(NAN);
-    // P L^-1 [r G]: the m rows.
-    pm_.resize(n, n + 1);
-    for (int i = 0; i < n; ++i) pm_.row(i) = rhs_.row(3 * i + 2);
-    cap_.noalias() = lay_.d * pm_.rightCols(n);
-    cap_.diagonal().array() += 1.0;
-    const Eigen::VectorXd y = cap_.partialPivLu().solve(lay_.d * pm_.col(0));
-    const Eigen::VectorXd z = rhs_.col(0) - rhs_.rightCols(n) * y;
+    // The capacitance matrix is stored transposed (its rows are rows of rhs_, contiguous).
+    cap_t_.resize(n, n);
+    dm_.resize(n);
+    for (int i = 0; i < n; ++i) {
+      cap_t_.col(i) = rhs_.row(3 * i + 2).tail(n).transpose();
+      dm_(i) = rhs_(3 * i + 2, 0);
+    }
+    cap_t_.diagonal().array() += 1.0;
+    cap_lu_.compute(cap_t_);
+    dm_solved_ = cap_lu_.transpose().solve(dm_);
+    z_ = rhs_.col(0);
+    z_.noalias() -= rhs_.rightCols(n) * dm_solved_;
     step_.resize(3 * n);
     for (int i = 0; i < n; ++i) {
-      step_(i) = z(3 * i);
-      step_(n + i) = z(3 * i + 1);
-      step_(2 * n + i) = z(3 * i + 2);
+      step_(i) = z_(3 * i);
+      step_(n + i) = z_(3 * i + 1);
+      step_(2 * n + i) = z_(3 * i + 2);
     }
     // The boundary-layer blocks alone become singular where the layer separates (with the edge
     // velocity held, the equations cannot fix the layer there; only the coupling does), and the
@@ -717,16 +804,18 @@ class CoupledSystem {
   }
 
   // (L + G D P) v for a var-major vector v, without forming the matrix.
-  Eigen::VectorXd jacobian_times(const Eigen::VectorXd& v) const {
+  const Eigen::VectorXd& jacobian_times(const Eigen::VectorXd& v) const {
     const int n = lay_.n;
-    Eigen::VectorXd out = g_ * (lay_.d * v.segment(2 * n, n));
+    due_scratch_.noalias() = lay_.d * v.segment(2 * n, n);
+    jv_.setZero(3 * n);
+    for_each_speed_term([&](int r, int col, double value) { jv_(r) += value * due_scratch_(col); });
     for (int s = 0; s < n; ++s)
       for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
         const int c = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
         const Eigen::Vector3d x(v(c), v(n + c), v(2 * n + c));
-        out.segment<3>(3 * s) += blocks_[static_cast<std::size_t>(kBlocks * s + k)] * x;
+        jv_.segment<3>(3 * s) += blocks_[static_cast<std::size_t>(kBlocks * s + k)] * x;
       }
-    return out;
+    return jv_;
   }
 
   // The dense Jacobian L + G D P (var-major columns), for the consistency test.
@@ -740,13 +829,15 @@ class CoupledSystem {
         for (int e = 0; e < 3; ++e)
           for (int v = 0; v < 3; ++v) j(3 * s + e, v * n + c) += b(e, v);
       }
-    j.rightCols(n) += g_ * lay_.d;
+    for_each_speed_term(
+        [&](int r, int col, double value) { j.row(r).tail(n) += value * lay_.d.row(col); });
     return j;
   }
 
   // Residuals and Jacobian at the current state; returns max |residual|.
   double assemble() {
-    g_.setZero();
+    std::fill(g_count_.begin(), g_count_.end(), 0);
+    g_spill_.clear();
     std::fill(block_count_.begin(), block_count_.end(), 0);
     res_.setZero();
     const int n = lay_.n;
@@ -990,12 +1081,19 @@ class CoupledSystem {
   Layout lay_;
   int le_ = 0;
   double te_gap_ = 0.0;
-  Eigen::MatrixXd g_;                            // 3 n by n: d(residual)/d(ue)
+  // G = d(residual)/d(ue), 3 n by n, sparse: per row up to kSpeedTerms (column, value).
+  std::vector<int> g_count_, g_col_;
+  std::vector<double> g_val_;
+  std::vector<SpeedTerm> g_spill_;
   std::vector<Eigen::Matrix3d> blocks_;          // up to 3 L blocks per station
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                       // marching order of the stations
-  Eigen::MatrixXd rhs_, pm_, cap_;
-  mutable Eigen::MatrixXd block_rhs_;  // 3 by (n + 1) scratch of solve_lower
+  RowMatrix rhs_;                                // 3 n by n + 1: [-r, G D], then L^-1 of it
+  Eigen::MatrixXd cap_t_;  // n by n: the capacitance matrix I + P W, transposed
+  Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu_;
+  Eigen::VectorXd dm_, dm_solved_, z_;
+  mutable Eigen::VectorXd due_scratch_, jv_;  // scratch of jacobian_times
+  mutable Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor> block_rhs_;  // solve_lower
   int dense_solves_ = 0;  // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
   Eigen::VectorXd c_, th_, mu_, ue_;
@@ -1014,7 +1112,7 @@ class CoupledSystem {
 
 JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
                                             const ViscousState* warm_start) const {
-  const CouplingModel model = inviscid_.coupling_model(alpha_deg * kDeg);
+  const CouplingModel model = model_at(alpha_deg);
   CoupledSystem sys(inviscid_, model, options_, flow_);
   if (!(warm_start && sys.warm_start(*warm_start))) sys.cold_start();
   sys.take_transition_from_kinds();
@@ -1033,6 +1131,10 @@ JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
 
 ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* warm_start) const {
   const bool warm = warm_start && warm_start->valid();
+  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > 60.0)
+    return solve_from(alpha_deg, nullptr);
+  // The warm and the cold attempt share the coupling model at this angle.
+  const CouplingModel model = model_at(alpha_deg);
   int total = 0;
   auto finish = [&total](ViscousResult r, const std::string& how) {
     total += r.iterations;
@@ -1041,11 +1143,11 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
     return r;
   };
   if (warm) {
-    ViscousResult r = solve_from(alpha_deg, warm_start);
-    if (r.converged || !std::isfinite(alpha_deg)) return finish(std::move(r), "warm start");
+    ViscousResult r = solve_on(model, alpha_deg, warm_start);
+    if (r.converged) return finish(std::move(r), "warm start");
     total += r.iterations;
   }
-  ViscousResult cold = solve_from(alpha_deg, nullptr);
+  ViscousResult cold = solve_on(model, alpha_deg, nullptr);
   if (cold.converged || !warm) return finish(std::move(cold), warm ? "cold start after the warm start failed" : "");
   total += cold.iterations;
   // Continuation from the warm state's angle: halve the remaining step until a sub-step
@@ -1063,7 +1165,7 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
     }
     from = r.state;
     step = alpha_deg - from.alpha;
-    ViscousResult last = solve_from(alpha_deg, &from);
+    ViscousResult last = solve_on(model, alpha_deg, &from);
     if (last.converged) return finish(std::move(last), "continuation from the warm start's angle");
     total += last.iterations;
   }
@@ -1078,8 +1180,14 @@ ViscousResult ViscousSolver::solve_from(double alpha_deg, const ViscousState* wa
     res.reason = "angle of attack must be finite and within +-60 deg";
     return res;
   }
+  return solve_on(model_at(alpha_deg), alpha_deg, warm_start);
+}
+
+ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_deg,
+                                      const ViscousState* warm_start) const {
+  ViscousResult res;
+  res.alpha = alpha_deg;
   const double alpha = alpha_deg * kDeg;
-  const CouplingModel model = inviscid_.coupling_model(alpha);
   CoupledSystem sys(inviscid_, model, options_, flow_);
   bool warm = warm_start && warm_start->valid() && sys.warm_start(*warm_start);
   if (!warm) sys.cold_start();

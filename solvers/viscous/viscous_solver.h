@@ -60,8 +60,8 @@ struct NewtonIteration {
   int worst_equation = -1;  // 0 amplification or lag, 1 momentum, 2 kinetic energy
   int stagnation_node = -1;
   int transition_upper = -1, transition_lower = -1;  // transition intervals (BL position), -1 none
-  double relaxation = 0.0;  // fraction of the Newton step taken
-  std::string limited_by;   // what limited the step ("" when the full step was taken)
+  double relaxation = 0.0;                           // fraction of the Newton step taken
+  std::string limited_by;  // what limited the step ("" when the full step was taken)
 };
 
 struct ViscousResult {
@@ -119,9 +119,15 @@ class ViscousSolver {
   const ViscousOptions& options() const { return options_; }
 
  private:
+  // One Newton solve from one start on a coupling model of this shape at alpha_deg.
+  ViscousResult solve_on(const CouplingModel& model, double alpha_deg,
+                         const ViscousState* warm_start) const;
+  CouplingModel model_at(double alpha_deg) const;
+
   InviscidSolver inviscid_;
   ViscousOptions options_;
   FlowConditions flow_;
+  SurfaceSourceResponse surface_response_;  // angle-independent part of every coupling model
 };
 
 }  // namespace fulmar::viscous
