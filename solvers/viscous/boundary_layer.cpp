@@ -171,6 +171,7 @@ MarchResult march_surface(const Eigen::VectorXd& x, const Eigen::VectorXd& ue, d
     spec.x2 = x(i);
     spec.type = turbulent ? IntervalType::kTurbulent : IntervalType::kLaminar;
     bool ok = solve_station(spec, s1, s2, flow, 0.0);
+    double transition_c = 0.0;  // sqrt(Ctau) guess of a transition interval's station 2
     if (!turbulent) {
       const double trip = (x_trip - spec.x1) / (spec.x2 - spec.x1);
       if (s2.c >= flow.n_crit || trip <= 1.0) {
@@ -179,6 +180,7 @@ MarchResult march_surface(const Eigen::VectorXd& x, const Eigen::VectorXd& ue, d
         const Closure<double> kt =
             close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow);
         s2.c = transition_ctau_root(kt);
+        transition_c = s2.c;
         ok = solve_station(spec, s1, s2, flow, 0.0);
         double w = 1.0;
         linearize_interval(spec, s1, s2, flow, &w);
@@ -190,7 +192,7 @@ MarchResult march_surface(const Eigen::VectorXd& x, const Eigen::VectorXd& ue, d
     if (allow_inverse &&
         (!ok || (shape_factor(s2) > hk_max && shape_factor(s2) > shape_factor(s1)))) {
       StationState inv = s1;
-      if (spec.type == IntervalType::kTransition && s1.c < 1.0) inv.c = s2.c;
+      if (spec.type == IntervalType::kTransition) inv.c = transition_c;
       inv.ue = s1.ue;
       if (solve_station(spec, s1, inv, flow, hk_max)) {
         s2 = inv;

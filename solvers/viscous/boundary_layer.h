@@ -61,8 +61,9 @@ Closure<T> close_station(LayerKind kind, const T& c, const T& theta, const T& ds
   Closure<T> k;
   k.me2 = edge_mach_squared(ue, flow.mach);
   k.h = (dstar - gap) / theta;
-  const double hk_min = kind == LayerKind::kWake ? 1.0001 : kLaminarHkMin;
-  k.hk = smooth_floor(kinematic_shape(k.h, k.me2), hk_min + 0.02, 0.02);
+  k.hk = kind == LayerKind::kWake
+             ? smooth_floor(kinematic_shape(k.h, k.me2), kWakeHkMin, kWakeHkBlend)
+             : smooth_floor(kinematic_shape(k.h, k.me2), kLaminarHkMin + 0.02, 0.02);
   k.hss = density_shape(k.hk, k.me2);
   // No floor here: the laminar closures only divide by it (a stagnation-point station can have
   // Re_theta near zero); the turbulent closures bound it themselves.
@@ -75,7 +76,8 @@ Closure<T> close_station(LayerKind kind, const T& c, const T& theta, const T& ds
     k.ctau_eq_root = T(0.0);
   } else {
     const bool wake = kind == LayerKind::kWake;
-    k.hs = turbulent_energy_shape(k.hk, k.re_theta, k.me2);
+    k.hs = wake ? turbulent_energy_shape(k.hk, k.re_theta, k.me2, kWakeHkMin, kWakeHkBlend)
+                : turbulent_energy_shape(k.hk, k.re_theta, k.me2);
     k.cf = wake ? T(0.0) : turbulent_skin_friction(k.hk, k.re_theta, k.me2);
     k.us = slip_velocity(k.hs, k.hk, k.h < 1.1 ? T(1.1) : k.h, wake);
     k.ctau_eq_root = sqrt(equilibrium_ctau(k.hs, k.hk, k.h < 1.1 ? T(1.1) : k.h, k.us));

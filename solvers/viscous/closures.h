@@ -85,6 +85,12 @@ T laminar_dissipation(const T& hk) {
 // ---- Turbulent closures [DG87] ---------------------------------------------------------------
 
 inline constexpr double kTurbulentHkMin = 1.05;
+// In a wake H_k tends to 1 as the velocity defect decays (it is near 1.05 one chord behind the
+// trailing edge of a thin section), so the wake's bound sits just above 1: a bound inside that
+// range would freeze H* there and leave the far-wake energy equation without a say in H. The H*
+// fit below is regular down to H_k = 1.
+inline constexpr double kWakeHkMin = 1.005;
+inline constexpr double kWakeHkBlend = 0.004;
 // Lower bounds of Re_theta in the turbulent fits: H* is fitted for Re_theta >= 200 or so (its H0
 // changes form at 400); the Cf fit needs log10(Re_theta) well above 0 (20 gives 1.3).
 inline constexpr double kTurbulentReThetaMin = 200.0;
@@ -92,8 +98,9 @@ inline constexpr double kFrictionReThetaMin = 20.0;
 
 // H* of a turbulent layer from H_k, Re_theta and Me2 (compressibility factor as in [DG87]).
 template <class T>
-T turbulent_energy_shape(const T& hk_in, const T& re_theta_in, const T& me2) {
-  const T hk = smooth_floor(hk_in, kTurbulentHkMin, 0.02);
+T turbulent_energy_shape(const T& hk_in, const T& re_theta_in, const T& me2,
+                         double hk_min = kTurbulentHkMin, double hk_blend = 0.02) {
+  const T hk = smooth_floor(hk_in, hk_min, hk_blend);
   const T rt = smooth_floor(re_theta_in, kTurbulentReThetaMin, 20.0);
   const T h0 = value_of(rt) > 400.0 ? T(3.0 + 400.0 / rt) : T(4.0);
   T hs;

@@ -494,6 +494,12 @@ class CoupledSystem {
   // shapes reach the same solution (at 0.25 a 1e-3 change of one CST coefficient could land a
   // climb-point solution in another interval and change its cd by 10 %).
   static constexpr double kTransitionHysteresis = 0.15;
+  // Shape factors that tell a station that changes kind whether its state fits the new kind:
+  // a turbulent station with H above kKeepStateH is reattaching from a bubble (laminar-like); a
+  // laminar one above kSeparatedLaminarH is separated (laminar separation at H_k about 4.0 in the
+  // closures of closures.h).
+  static constexpr double kKeepStateH = 2.4;
+  static constexpr double kSeparatedLaminarH = 3.5;
   void assign_transition() {
     transition_limited_ = false;
     bool moved_mass = false;
@@ -546,8 +552,23 @@ class CoupledSystem {
             transition_fraction(xi_of(side, idx, q - 1), xi_of(side, idx, q), a.data(), flow_);
         keep = !tripped_before && wq >= -kTransitionHysteresis && wq <= 1.0 + kTransitionHysteresis;
       }
-      if (keep) first = q;
-      else if (previous_transition_[side] >= 1)
+      // At a separation bubble the e^N point of a state moves against its transition: a
+      // transition that is too early leaves a short bubble with slow amplification and an e^N
+      // point too late, and vice versa (at NACA 0012, Re 2e5 about as far on the other side of
+      // the settled point). A natural transition there moves half way to the e^N point, which
+      // stops the alternation from running away.
+      const bool natural_free =
+          natural >= m || trip_fraction(side, idx[natural - 1], idx[natural]) > 1.0;
+      const bool bubble =
+          q >= 1 && q < m &&
+          (station(idx[q - 1]).dstar - lay_.gap(idx[q - 1])) / th_(idx[q - 1]) > kSeparatedLaminarH;
+      if (keep) {
+        first = q;
+      } else if (bubble && natural_free && trip_fraction(side, idx[q - 1], idx[q]) > 1.0) {
+        const int d = natural - q;
+        first = std::clamp(q + (d > 0 ? (d + 1) / 2 : -((1 - d) / 2)), q - kMaxTransitionMove,
+                           q + kMaxTransitionMove);
+      } else if (previous_transition_[side] >= 1)
         first = std::clamp(natural, previous_transition_[side] - kMaxTransitionMove,
                            previous_transition_[side] + kMaxTransitionMove);
       first = std::clamp(first, 1, m);
@@ -562,12 +583,19 @@ class CoupledSystem {
           if (kinds_[i] != LayerKind::kLaminar) {
             // A turbulent station that turns laminar: N from the estimate, and the laminar
             // shape factor of its upstream neighbour (a turbulent H ~ 1.4 would stop the
-            // amplification and push transition ever further downstream).
+            // amplification and push transition ever further downstream). A station at the
+            // reattachment of a separation bubble already has a laminar-like H and keeps its
+            // state: replacing its mass defect would kick the edge velocity there (the coupling
+            // answers a local change of m with a sawtooth in ue).
             c_(i) = std::max(n_est[p], 0.0);
-            mu_(i) = dstar_speed(i) * (h_laminar * th_(i) + lay_.gap(i));
-            moved_mass = true;
+            if ((station(i).dstar - lay_.gap(i)) / th_(i) < kKeepStateH) {
+              mu_(i) = dstar_speed(i) * (h_laminar * th_(i) + lay_.gap(i));
+              moved_mass = true;
+            }
           } else {
-            h_laminar = std::clamp(station(i).dstar / th_(i), 2.0, 4.0);
+            // Not capped at attached values: in a separation bubble the laminar layer ahead of
+            // transition has H well above 4, and the station that turns laminar continues it.
+            h_laminar = std::clamp(station(i).dstar / th_(i), 2.0, 10.0);
           }
           kinds_[i] = LayerKind::kLaminar;
         } else {
@@ -578,7 +606,12 @@ class CoupledSystem {
             int d = -1;
             for (int pp = p + 1; pp < m && d < 0; ++pp)
               if (kinds_[idx[pp]] != LayerKind::kLaminar) d = idx[pp];
-            if (d >= 0) {
+            const bool separated = (station(i).dstar - lay_.gap(i)) / th_(i) > kSeparatedLaminarH;
+            if (d >= 0 && separated) {
+              // Transition in a separated laminar layer: the state is continuous through it
+              // (only c changes meaning); the turbulent equations reattach the layer from there.
+              c_(i) = c_(d);
+            } else if (d >= 0) {
               const double h = std::clamp((station(d).dstar - lay_.gap(d)) / th_(d), 1.3, 2.2);
               mu_(i) = dstar_speed(i) * (h * th_(i) + lay_.gap(i));
               c_(i) = c_(d);
@@ -1197,6 +1230,8 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   double r = INFINITY;
   bool done = false;
   int it = 0;
+  std::size_t last_move = 0;
+  int moved_upper = -2, moved_lower = -2;
   for (; it < options_.max_iterations; ++it) {
     sys.prepare_iteration();
     r = sys.assemble();
@@ -1206,9 +1241,15 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
       done = true;
       break;
     }
-    // Give up early when the residual has stopped falling (a fallback start is cheaper).
+    // Give up early when the residual has stopped falling (a fallback start is cheaper); a
+    // move of the transition interval raises it legitimately and restarts the count.
     const std::size_t h = res.residual_history.size();
-    if (h > 12 && r > 1e-3 && r > 0.5 * res.residual_history[h - 7]) break;
+    if (sys.transition_interval(0) != moved_upper || sys.transition_interval(1) != moved_lower) {
+      moved_upper = sys.transition_interval(0);
+      moved_lower = sys.transition_interval(1);
+      last_move = h - 1;
+    }
+    if (h > last_move + 12 && r > 1e-3 && r > 0.5 * res.residual_history[h - 7]) break;
     NewtonIteration rec;
     rec.residual = r;
     std::tie(rec.worst_station, rec.worst_equation) = sys.worst_residual();

@@ -212,6 +212,60 @@ INSTANTIATE_TEST_SUITE_P(Naca, CamberedSection,
                            return "naca" + i.param.digits;
                          });
 
+// x/c of the first upper-surface node behind the stagnation point with reversed wall shear (the
+// laminar separation point), or NaN when the upper layer stays attached.
+double upper_separation(const ViscousResult& r, const Points& nodes) {
+  for (int i = r.state.stagnation_node; i >= 0; --i)
+    if (r.cf(i) < 0.0) return nodes(i, 0);
+  return NAN;
+}
+
+// NACA 0012 at Re 2e5, free transition (N_crit 9): the laminar layer separates and transition
+// happens in the separated shear layer (a laminar separation bubble). Wind-tunnel studies of
+// this section's bubble at Re 1e5..3e5 (surface oil flow and hot-wire surveys; values from
+// memory, the individual reports not checked here) place laminar separation near x/c 0.6-0.7 and
+// transition in the bubble near 0.75-0.85 at zero incidence, with cd about 0.010-0.012. Solved as a
+// polar sweep would: cold at 1 deg, then warm starts to the neighbours.
+TEST(ViscousLowReynolds, Naca0012AtTwoHundredThousandHasALaminarSeparationBubble) {
+  const Points nodes = naca_nodes("0012", 160);
+  const ViscousSolver solver(nodes, options_at(2.0e5));
+  const ViscousResult r1 = solver.solve_alpha(1.0);
+  ASSERT_TRUE(r1.converged) << r1.reason;
+  const ViscousResult r0 = solver.solve_alpha(0.0, &r1.state);
+  ASSERT_TRUE(r0.converged) << r0.reason;
+  // Symmetric section at zero incidence: no lift, the same transition on both sides (exact).
+  EXPECT_NEAR(r0.cl, 0.0, 1e-3);
+  EXPECT_NEAR(r0.transition_upper, r0.transition_lower, 0.01);
+  // A bubble at 0 and 1 deg: laminar separation, then transition downstream of it and upstream
+  // of the trailing edge. Measured at 0 deg: separation 0.71, transition 0.87. Separation within
+  // 0.1 of the quoted band (about the bubble's sensitivity to tunnel turbulence, common
+  // practice); transition within 0.1 of its band (the model's first-order rate puts it up to half
+  // an interval, 0.01, late, and N_crit 9 stands for one quiet tunnel).
+  for (const ViscousResult* r : {&r0, &r1}) {
+    const double sep = upper_separation(*r, nodes);
+    ASSERT_FALSE(std::isnan(sep)) << r->alpha;
+    EXPECT_GT(sep, 0.5) << r->alpha;
+    EXPECT_LT(sep, 0.8) << r->alpha;
+    EXPECT_GT(r->transition_upper, sep) << r->alpha;
+    EXPECT_LT(r->transition_upper, 0.95) << r->alpha;
+    EXPECT_GT(r->transition_upper, 0.65) << r->alpha;
+  }
+  // Measured 0.00957 (-4 % from the lower end of the quoted range); tolerance 15 % outside the
+  // range: the scatter of low-Reynolds-number drag between tunnels (common practice), where the
+  // bubble's size depends on the free-stream turbulence.
+  EXPECT_GT(r0.cd, 0.85 * 0.010);
+  EXPECT_LT(r0.cd, 1.15 * 0.012);
+  // Up to 4 deg: converged, cd rises and the upper transition moves forward with the angle.
+  ViscousResult prev = r1;
+  for (double a : {2.0, 3.0, 4.0}) {
+    ViscousResult r = solver.solve_alpha(a, &prev.state);
+    ASSERT_TRUE(r.converged) << a << ": " << r.reason;
+    EXPECT_GT(r.cd, prev.cd) << a;
+    EXPECT_LT(r.transition_upper, prev.transition_upper) << a;
+    prev = std::move(r);
+  }
+}
+
 // Smoothness for the optimizer: cd over alpha 0..4 deg in 0.02-deg steps (warm-started) and
 // over a sweep of one CST coefficient has no jump larger than 1 % of cd between neighbours (the
 // issue's criterion). Measured 0.54 % (alpha).
