@@ -385,6 +385,8 @@ AnalysisOptions read_analysis(Reader r) {
   AnalysisOptions a;
   if (auto c = r.optional_child("panels")) a.panels = c->integer();
   if (auto c = r.optional_child("verify_panels")) a.verify_panels = c->integer();
+  if (auto c = r.optional_child("search_cl_max_margin"))
+    a.search_cl_max_margin = c->in_range(0, 0.2, false, false);
   if (auto c = r.optional_child("polar_alpha")) {
     a.polar_alpha_min = c->child("min").in_range(-30, 30, false, false);
     a.polar_alpha_max = c->child("max").in_range(-30, 30, false, false);

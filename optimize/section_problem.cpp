@@ -256,7 +256,7 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
   if (!std::isnan(k.thickness_x_max))
     limits_.push_back({"x of maximum t/c", false, k.thickness_x_max, 0.1});
   if (!std::isnan(k.cl_max_min))
-    limits_.push_back({"cl_max at landing", true, k.cl_max_min, k.cl_max_min});
+    limits_.push_back({kClMaxConstraint, true, k.cl_max_min, k.cl_max_min});
   for (const auto& p : c.points)
     if (!std::isnan(p.cm_min))
       for (const auto& s : c.scenarios)
@@ -396,7 +396,21 @@ SearchProblem SectionProblem::search_problem() const {
   p.start = space_.start;
   p.constraint_names = names_;
   const int panels = case_.analysis.panels;
-  p.evaluate = [this, panels](const std::vector<double>& x) { return evaluate(x, panels); };
+  // The cl_max margin of the search (AnalysisOptions::search_cl_max_margin) on the scaled value;
+  // the detail's table keeps the limit itself.
+  int cl_max_index = -1;
+  double shift = 0.0;
+  for (size_t i = 0; i < limits_.size(); ++i)
+    if (limits_[i].name == kClMaxConstraint) {
+      cl_max_index = static_cast<int>(i);
+      shift = case_.analysis.search_cl_max_margin / limits_[i].scale;
+    }
+  p.evaluate = [this, panels, cl_max_index, shift](const std::vector<double>& x) {
+    Evaluation e = evaluate(x, panels);
+    if (cl_max_index >= 0 && static_cast<size_t>(cl_max_index) < e.constraints.size())
+      e.constraints[static_cast<size_t>(cl_max_index)] += shift;
+    return e;
+  };
   return p;
 }
 

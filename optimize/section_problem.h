@@ -68,6 +68,8 @@ double cst_thickness_at(const CstShape& shape, double x);
 // Objective of a design whose analysis failed: 100 x cd = 5 is cd 0.05, worse than any attached
 // flow section at these conditions, finite so the search can move away.
 inline constexpr double kFailedObjective = 5.0;
+// Name of the maximum-lift constraint in tables and history.
+inline constexpr const char* kClMaxConstraint = "cl_max at landing";
 
 class SectionProblem {
  public:

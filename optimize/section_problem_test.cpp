@@ -88,6 +88,29 @@ TEST(SectionProblem, ConstraintTableNamesEveryLimit) {
   for (const auto& row : table) EXPECT_TRUE(row.at("satisfied").get<bool>()) << row.dump();
 }
 
+// The search sees the cl_max constraint tightened by analysis.search_cl_max_margin (scaled by the
+// limit, like the constraint itself); every other constraint and the table stay as evaluated.
+TEST(SectionProblem, SearchAddsTheClMaxMarginOnly) {
+  Case c = small_case();
+  c.analysis.search_cl_max_margin = 0.026;
+  testing::AnalyticEvaluator ev;
+  const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
+  const Evaluation plain = p.evaluate(p.space().start, c.analysis.panels);
+  const Evaluation searched = p.search_problem().evaluate(p.space().start);
+  ASSERT_EQ(plain.constraints.size(), searched.constraints.size());
+  int shifted = 0;
+  for (size_t i = 0; i < plain.constraints.size(); ++i) {
+    if (p.constraint_names()[i].rfind(kClMaxConstraint, 0) == 0) {
+      EXPECT_NEAR(searched.constraints[i] - plain.constraints[i], 0.026 / 1.3, 1e-12);
+      ++shifted;
+    } else {
+      EXPECT_EQ(searched.constraints[i], plain.constraints[i]) << p.constraint_names()[i];
+    }
+  }
+  EXPECT_EQ(shifted, 1);
+  EXPECT_EQ(SectionProblem::constraint_table(searched), SectionProblem::constraint_table(plain));
+}
+
 TEST(SectionProblem, CrossingSurfacesAreAFailureWithoutAnalysis) {
   const Case c = small_case();
   testing::AnalyticEvaluator ev;

@@ -163,17 +163,29 @@ const std::vector<BadCase> kBadCases = {
      "/optimizer/time_limit_s", "must be > 0"},
     {"VerifyCoarserThanSearch", [](json& j) { j["analysis"]["verify_panels"] = 100; }, "/analysis",
      "verify_panels"},
+    {"ClMaxMarginTooLarge", [](json& j) { j["analysis"]["search_cl_max_margin"] = 0.5; },
+     "/analysis/search_cl_max_margin", "must be"},
     {"TooFewOutputPoints", [](json& j) { j["outputs"]["points"] = 5; }, "/outputs/points",
      "must be in 21..2001"},
-    {"UnknownCadFormat", [](json& j) { j["outputs"]["cad"] = {{"formats", {"step", "stl"}}}; },
+    {"UnknownCadFormat",
+     [](json& j) {
+       j["outputs"]["cad"] = {{"formats", {"step", "stl"}}};
+     },
      "/outputs/cad/formats/1", "must be one of dxf, iges, step, svg, csv"},
-    {"NoCadFormat", [](json& j) { j["outputs"]["cad"] = {{"formats", json::array()}}; },
+    {"NoCadFormat",
+     [](json& j) {
+       j["outputs"]["cad"] = {{"formats", json::array()}};
+     },
      "/outputs/cad/formats", "must name at least one format"},
     {"BadCadUnits",
-     [](json& j) { j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"units", "ft"}}; },
+     [](json& j) {
+       j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"units", "ft"}};
+     },
      "/outputs/cad/units", "must be mm, m or in"},
     {"NegativeCadChord",
-     [](json& j) { j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"chord", -3}}; },
+     [](json& j) {
+       j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"chord", -3}};
+     },
      "/outputs/cad/chord", "must be > 0"},
 };
 
@@ -240,8 +252,7 @@ TEST(CliOptimize, SmallOptimizationImprovesAPoorBaselineWithinItsConstraints) {
   const json s = json::parse(in);
   ASSERT_TRUE(s.at("optimized").at("analysis_ok").get<bool>()) << s.at("optimized").dump();
   EXPECT_TRUE(s.at("feasible").get<bool>());
-  for (const json& k : s.at("constraints"))
-    EXPECT_TRUE(k.at("satisfied").get<bool>()) << k.dump();
+  for (const json& k : s.at("constraints")) EXPECT_TRUE(k.at("satisfied").get<bool>()) << k.dump();
   const double cd0 = s.at("baseline").at("weighted_cd").get<double>();
   const double cd1 = s.at("optimized").at("weighted_cd").get<double>();
   // At least 3 % less drag: thinning from 21 % to about 12 % alone is worth more (see above).
