@@ -440,5 +440,29 @@ TEST(SweepPolar, Naca0012MaximumLiftAtSixMillion) {
               s.alpha_cl_max, p.solves, s.note.c_str());
 }
 
+// NACA 2412, Re 6e6, free transition, 160 panels: cl_max against Abbott & von Doenhoff 1959
+// (Appendix IV, smooth section near Re 5.9e6: about 1.7, from memory), within the 0.15 the issue
+// allows for an integral boundary layer near stall (its trailing-edge separation is the least
+// certain part of the model). Measured 1.800 at 18.1 deg. Not a check for NACA 4412, which the
+// model puts at 1.836 against about 1.67 (from memory), 0.17 high: outside that allowance, and
+// reported as a known over-prediction of cambered sections' stall (DEVELOPERS.md).
+TEST(SweepPolar, Naca2412MaximumLiftAtSixMillion) {
+  PanellingOptions po;
+  po.panels = 160;
+  ViscousOptions vo;
+  vo.reynolds = 6.0e6;
+  const ViscousSolver solver(panel_nodes(naca_section("2412"), po), vo);
+  PolarOptions o;
+  o.alpha_from = 12;
+  o.alpha_to = 21;
+  o.alpha_step = 1;
+  const Polar p = sweep_polar(solver, o);
+  const PolarSummary& s = p.summary;
+  ASSERT_TRUE(s.has_cl_max) << s.note;
+  EXPECT_NEAR(s.cl_max, 1.7, 0.15) << s.note;
+  std::printf("NACA 2412 Re 6e6: cl_max %.4f at %.2f deg (%d solves): %s\n", s.cl_max,
+              s.alpha_cl_max, p.solves, s.note.c_str());
+}
+
 }  // namespace
 }  // namespace fulmar::viscous
