@@ -74,6 +74,7 @@ class Search {
         run_multistart(r);
       } else {
         r.converged = run_local(s_.options.algorithm, p_.start, r.stop_reason);
+        restart_local(r);
       }
     } catch (const StopSearch&) {
       r.converged = false;
@@ -261,9 +262,8 @@ class Search {
       for (unsigned k = 0; k < m; ++k)
         for (unsigned i = 0; i < n; ++i)
           grad[k * n + i] =
-              steps[i] != 0.0
-                  ? (history_[idx[i + 1]].constraints[k] - e.constraints[k]) / steps[i]
-                  : 0.0;
+              steps[i] != 0.0 ? (history_[idx[i + 1]].constraints[k] - e.constraints[k]) / steps[i]
+                              : 0.0;
   }
 
   void progress_line(const Evaluation& e) {
@@ -388,6 +388,31 @@ class Search {
     }
   }
 
+  // SLSQP and MMA on finite-difference gradients of a flow solver often end early: a line
+  // search that finds no descent along a direction spoilt by a noisy gradient component counts as
+  // "objective change below ftol_rel" (seen on the demo: stuck at an infeasible point 0.6 % from
+  // the cl_max limit with half the budget left). So a local search that ends on its tolerance is
+  // restarted from the best feasible design (a fresh quasi-Newton model), up to kMaxRestarts
+  // times, while the previous restart improved the best feasible objective by more than
+  // kRestartGain (relative). Budget, time limit and signals still end it at any moment.
+  static constexpr int kMaxRestarts = 4;
+  static constexpr double kRestartGain = 1e-3;
+  void restart_local(SearchResult& r) {
+    if (s_.options.algorithm != Algorithm::slsqp && s_.options.algorithm != Algorithm::mma) return;
+    double previous = std::numeric_limits<double>::infinity();
+    for (int k = 1; k <= kMaxRestarts && r.converged; ++k) {
+      const int best = best_feasible(history_, s_.options.constraint_tol);
+      if (best < 0) return;
+      const double f = history_[size_t(best)].objective;
+      if (k > 1 && !(f < previous - kRestartGain * std::abs(previous))) return;
+      previous = f;
+      std::string reason;
+      r.converged = run_local(s_.options.algorithm, history_[size_t(best)].x, reason);
+      r.stop_reason = reason + " (after " + std::to_string(k) +
+                      (k == 1 ? " restart" : " restarts") + " from the best feasible design)";
+    }
+  }
+
   void run_multistart(SearchResult& r) {
     std::mt19937_64 rng(s_.options.seed);
     bool all = true;
@@ -453,7 +478,7 @@ class Search {
   size_t n_;
   int threads_ = 1;
   std::vector<Evaluation> history_;
-  bool scaled_ = false;                 // see kGradientScale
+  bool scaled_ = false;                  // see kGradientScale
   std::vector<double> origin_, design_;  // start of the scaled variables; the current design
   std::map<std::vector<double>, size_t> cache_;
   std::map<std::vector<double>, Evaluation> replay_;
