@@ -121,10 +121,9 @@ ClMaxResult find_cl_max(const viscous::ViscousSolver& solver) {
   summary.has_cl_max = summary.cl_max_bracketed = true;
   summary.cl_max = out.cl_max;
   summary.alpha_cl_max = out.alpha_deg;
-  const std::vector<viscous::ViscousResult> known(done.begin() + static_cast<long>(best) - 1,
-                                                  done.begin() + static_cast<long>(best) + 2);
+  // refine_cl_max brackets the best of `done` by its two neighbours itself.
   viscous::refine_cl_max(
-      known,
+      done,
       [&solver](double alpha, const viscous::ViscousState* warm) {
         // With solve_alpha's fallbacks: a failed solve inside the bracket would steer the search
         // away from the peak (seen at 200 panels as drops of 0.017 between shapes 1e-3 apart).
