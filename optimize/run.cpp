@@ -343,6 +343,26 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
     }
     if (ok) break;
   }
+  // Never worse than the start: a search whose gains at the search panels do not survive the
+  // verification (or whose candidates all fail it) keeps a start that verifies feasible and
+  // better. In a study, where each point starts from a neighbour's optimum that also meets this
+  // point's constraints, that makes the swept cd follow the constraint monotonically.
+  bool kept_start = false;
+  {
+    const bool same = search.start == space.start;
+    const Evaluation start_v = same ? base_v : verify(search.start);
+    const bool start_ok = start_v.ok && worst_constraint(start_v) <= tol;
+    const bool opt_ok = opt_v.ok && worst_constraint(opt_v) <= tol;
+    if (start_ok && (!opt_ok || start_v.objective < opt_v.objective)) {
+      kept_start = true;
+      x_opt = search.start;
+      opt_v = start_v;
+      if (options.progress)
+        *options.progress << "the start design verifies feasible and better than the search's "
+                             "candidates: it is kept as the optimum\n"
+                          << std::flush;
+    }
+  }
   const CstShape opt_shape = space.shape(x_opt);
   const bool feasible = opt_v.ok && worst_constraint(opt_v) <= tol;
 
@@ -553,6 +573,7 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
   summary["feasible"] = feasible;
   summary["evaluations"] = r.history.size();
   summary["verified_candidates"] = verified;
+  summary["optimum_is_start"] = kept_start;
   summary["failed_evaluations"] = failed;
   summary["iterations"] = r.iterations;
   summary["converged"] = r.converged;
@@ -601,7 +622,10 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
       << (r.interrupted ? " (interrupted)" : "") << ". Verification with "
       << c.analysis.verify_panels << " panels (search: " << c.analysis.panels
       << "). Analysis: " << evaluator.description() << ".";
-    if (verified.size() > 1 && feasible)
+    if (kept_start)
+      m << " No design of the search verified feasible and better than the start, which is "
+           "therefore the result.";
+    else if (verified.size() > 1 && feasible)
       m << " The " << verified.size() - 1
         << " better design(s) of the search did not meet every constraint when verified; the "
            "result is the best one that did.";

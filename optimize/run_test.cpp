@@ -217,6 +217,60 @@ TEST(Run, StartsWhereToldAndKeepsTheBaselineAsReference) {
   fs::remove_all(dir);
 }
 
+// Verification (finer panels) that charges every departure from the start's thickness: the
+// search's gains do not survive it, as when a search exploits a coarse-panel error.
+class StartFavouringVerification : public testing::AnalyticEvaluator {
+ public:
+  int verify_panels = 0;
+  double start_thickness = 0;
+  SectionAnalysis analyse(const Section& s, const AnalysisRequest& r) const override {
+    SectionAnalysis a = AnalyticEvaluator::analyse(s, r);
+    if (r.panels == verify_panels) {
+      const double dt = std::abs(section_metrics(s).thickness - start_thickness);
+      for (PointResult& p : a.points) p.cd += 0.5 * dt;
+    }
+    return a;
+  }
+};
+
+TEST(Run, KeepsAFeasibleStartThatVerifiesBetterThanEverySearchCandidate) {
+  const fs::path dir = scratch("keep_start");
+  StartFavouringVerification ev;
+  const Case c = small_case(60);
+  ev.verify_panels = c.analysis.verify_panels;
+  ev.start_thickness = section_metrics(naca_section("0018", 201)).thickness;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  const RunOutcome out = run_optimization(c, ev, o);
+  // The search itself improves on the start (at its own panels), so without the rule a worse
+  // design would be returned.
+  ASSERT_GT(out.summary["verified_candidates"].size(), 0u);
+  const json& first = out.summary["verified_candidates"][0];
+  ASSERT_TRUE(first["search_objective"].is_number());
+  EXPECT_TRUE(out.summary["optimum_is_start"].get<bool>());
+  EXPECT_TRUE(out.feasible);
+  EXPECT_DOUBLE_EQ(out.summary["optimized"]["weighted_cd"].get<double>(),
+                   out.summary["baseline"]["weighted_cd"].get<double>());
+  EXPECT_LT(out.summary["baseline"]["weighted_cd"].get<double>(),
+            first["verified_objective"].get<double>() / 100.0);
+  EXPECT_NE(slurp(dir / "report.md").find("better than the start"), std::string::npos);
+  fs::remove_all(dir);
+}
+
+TEST(Run, AnOrdinarySearchDoesNotKeepItsStart) {
+  const fs::path dir = scratch("no_keep_start");
+  testing::AnalyticEvaluator ev;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  const RunOutcome out = run_optimization(small_case(60), ev, o);
+  EXPECT_FALSE(out.summary["optimum_is_start"].get<bool>());
+  EXPECT_LT(out.summary["optimized"]["weighted_cd"].get<double>(),
+            out.summary["baseline"]["weighted_cd"].get<double>());
+  fs::remove_all(dir);
+}
+
 TEST(Run, MissingParentDirectoryIsAnInputError) {
   testing::AnalyticEvaluator ev;
   RunOptions o;
