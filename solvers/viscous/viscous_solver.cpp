@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <numbers>
+#include <optional>
 #include <sstream>
 #include <tuple>
 
@@ -50,9 +51,9 @@ struct Layout {
   Eigen::VectorXd ue_inviscid;           // boundary-layer sense (> 0 downstream)
   // D in boundary-layer sense: sign_i sign_j D_ij (row-major: the Newton solve combines its rows)
   RowMatrix d;
-  Eigen::VectorXd s;                     // arc length: surface from node 0, wake from TE
-  Eigen::VectorXd gap;                   // wake base thickness per station (0 on the surface)
-  Eigen::VectorXd x;                     // x/c of the surface nodes
+  Eigen::VectorXd s;    // arc length: surface from node 0, wake from TE
+  Eigen::VectorXd gap;  // wake base thickness per station (0 on the surface)
+  Eigen::VectorXd x;    // x/c of the surface nodes
 };
 
 // The node k with q_k > 0 >= q_{k+1} (speed changes sign) nearest to the leading-edge node.
@@ -193,6 +194,28 @@ class CoupledSystem {
     for (int i = stag + 1; i < lay_.n_surface; ++i) lay_.sign(i) = -1.0;
     lay_.ue_inviscid = lay_.sign.cwiseProduct(model_.edge_velocity);
     lay_.d = lay_.sign.asDiagonal() * model_.mass_influence * lay_.sign.asDiagonal();
+    // The wake rows of the coupling, smoothed node to node. At a wake node the constant-source
+    // panels on either side are evaluated by a finite part (a jump of source strength has a
+    // logarithmically infinite tangential velocity at the node), which gives the node-to-node
+    // (odd-even) mode of the mass defect an arbitrary response; the coupled equations then admit
+    // sawtooth wake solutions beside the smooth one (NACA 2412, Re 6e6, 4 deg, 160 panels: two
+    // converged solutions with cd 0.00640 and 0.00728, the second with a sawtooth in the
+    // near-wake theta, reached by marching up or down in angle). A [1 2 1]/4 filter of the rows
+    // from the second wake node on and a lighter [1 6 1]/8 at the first removes the mode. (The
+    // full filter at the first node, next to the trailing edge where the wake speed changes fast
+    // near stall, gave NACA 0012 at Re 6e6 a spurious branch with cl 1.99 at 18 deg.)
+    {
+      const int w0 = lay_.n_surface;
+      filter_rows_ = lay_.d.middleRows(w0, lay_.n_wake);
+      filter_q_ = lay_.ue_inviscid.segment(w0, lay_.n_wake);
+      for (int j = 1; j + 1 < lay_.n_wake; ++j) {
+        const double e = j == 1 ? 0.125 : 0.25;
+        lay_.d.row(w0 + j) = e * (filter_rows_.row(j - 1) + filter_rows_.row(j + 1)) +
+                             (1.0 - 2.0 * e) * filter_rows_.row(j);
+        lay_.ue_inviscid(w0 + j) =
+            e * (filter_q_(j - 1) + filter_q_(j + 1)) + (1.0 - 2.0 * e) * filter_q_(j);
+      }
+    }
   }
 
   // Cold start: march both surfaces and the wake on the inviscid edge velocity. (A second march
@@ -299,13 +322,15 @@ class CoupledSystem {
     // The nodes around the stagnation point keep their delta* (the speed that converts m into
     // delta* changes with their role); the node that changes sides sat next to the stagnation
     // point: a laminar layer near the stagnation similarity state (H about 2.2).
-    const int lo = std::max(0, std::min(k, nk) - 1), hi = std::min(lay_.n_surface - 1, std::max(k, nk) + 2);
+    const int lo = std::max(0, std::min(k, nk) - 1),
+              hi = std::min(lay_.n_surface - 1, std::max(k, nk) + 2);
     std::vector<double> dstar;
     for (int i = lo; i <= hi; ++i) dstar.push_back(i == moved ? 2.2 * th_(i) : station(i).dstar);
     set_stagnation(nk);
     for (int pass = 0; pass < 2; ++pass) {
       update_edge_velocity();
-      for (int i = lo; i <= hi; ++i) mu_(i) = dstar_speed(i) * dstar[static_cast<std::size_t>(i - lo)];
+      for (int i = lo; i <= hi; ++i)
+        mu_(i) = dstar_speed(i) * dstar[static_cast<std::size_t>(i - lo)];
     }
     c_(moved) = 0.0;
     kinds_[moved] = LayerKind::kLaminar;
@@ -333,7 +358,7 @@ class CoupledSystem {
   // one leading-edge panel (~1e-4 chord).
   static constexpr double kMinStagnationFraction = 0.05;
   struct StagnationFraction {
-    double t = 0.5, sum = 1.0;  // modelled fraction and u_k + u_k+1
+    double t = 0.5, sum = 1.0;       // modelled fraction and u_k + u_k+1
     double d_uk = 0.0, d_uk1 = 0.0;  // dt / du_k, dt / du_k+1
   };
   StagnationFraction stagnation_fraction(int side) const {
@@ -477,9 +502,8 @@ class CoupledSystem {
   // turbulent_c and its derivatives with respect to the station's (c, theta, delta*, ue).
   std::array<double, 5> turbulent_c_linearized(int i, const StationState& s) const {
     if (kinds_[i] != LayerKind::kLaminar) return {s.c, 1.0, 0.0, 0.0, 0.0};
-    const Closure<Dual> k =
-        close_station(LayerKind::kTurbulent, Dual(0.0), Dual::input(s.theta, 0),
-                      Dual::input(s.dstar, 1), Dual::input(s.ue, 2), flow_);
+    const Closure<Dual> k = close_station(LayerKind::kTurbulent, Dual(0.0), Dual::input(s.theta, 0),
+                                          Dual::input(s.dstar, 1), Dual::input(s.ue, 2), flow_);
     const Dual c = transition_ctau_root(k);
     return {c.v, 0.0, c.d[0], c.d[1], c.d[2]};
   }
@@ -542,10 +566,12 @@ class CoupledSystem {
       // that it cannot flip between two intervals from one iteration to the next.
       const int q = previous_transition_[side];
       bool keep = false;
-      if (q >= 1 && q < m && natural != q && kinds_[idx[q - 1]] == LayerKind::kLaminar &&
+      if (!release_[side] && q >= 1 && q < m && natural != q &&
+          kinds_[idx[q - 1]] == LayerKind::kLaminar &&
           trip_fraction(side, idx[q - 1], idx[q]) > 1.0) {
         bool tripped_before = false;
-        for (int p = 1; p < q; ++p) tripped_before |= trip_fraction(side, idx[p - 1], idx[p]) <= 1.0;
+        for (int p = 1; p < q; ++p)
+          tripped_before |= trip_fraction(side, idx[p - 1], idx[p]) <= 1.0;
         const StationState s1 = station(idx[q - 1]);
         const std::array<double, 4> a{s1.c, s1.theta, s1.dstar, s1.ue};
         const double wq =
@@ -574,6 +600,7 @@ class CoupledSystem {
       first = std::clamp(first, 1, m);
       if (first != natural && !keep) transition_limited_ = true;
       previous_transition_[side] = first;
+      release_[side] = false;
       transition_interval_[side] = first < m ? first : -1;
       kinds_[idx[0]] = LayerKind::kLaminar;
       double h_laminar = 2.6;  // H of the last laminar station (a Blasius-like value before)
@@ -645,6 +672,26 @@ class CoupledSystem {
     }
   }
   bool transition_limited() const { return transition_limited_; }
+
+  // A converged state whose transition point lies outside its interval (w < 0 or w > 1, which
+  // the hysteresis band of assign_transition allows) is a second representation of a solution
+  // whose transition point lies in the neighbouring interval, and not an equivalent one (the
+  // station in between carries the wrong layer kind). Releases the hysteresis of such a side
+  // for the next assignment, at most kMaxSettles times per solve, so that the solve goes on to
+  // the representation with w in [0, 1]: one solution whatever the path (warm start, angle
+  // step, nearby shape).
+  static constexpr int kMaxSettles = 2;
+  static constexpr double kSettleSlack = 1e-6;
+  bool outside_interval(int side) const {
+    if (transition_interval_[side] < 1 || settles_ >= kMaxSettles) return false;
+    const double w = transition_weight_[side];
+    return w < -kSettleSlack || w > 1.0 + kSettleSlack;
+  }
+  bool needs_settling() const { return outside_interval(0) || outside_interval(1); }
+  void settle_transition() {
+    for (int side = 0; side < 2; ++side) release_[side] = outside_interval(side);
+    ++settles_;
+  }
 
   double xi_of(int side, const std::vector<int>& idx, int p) const {
     return first_xi(side) + std::abs(lay_.s(idx[p]) - lay_.s(idx[0]));
@@ -935,7 +982,8 @@ class CoupledSystem {
       const double tsum = a.theta + b.theta;
       // c_w - (cu tu + cl tl) / (tu + tl); a laminar side hands on the initial turbulent
       // sqrt(Ctau) of its state (derivatives through the closures).
-      const std::array<double, 5> lu = turbulent_c_linearized(u, a), ll = turbulent_c_linearized(l, b);
+      const std::array<double, 5> lu = turbulent_c_linearized(u, a),
+                                  ll = turbulent_c_linearized(l, b);
       const double cu = lu[0], cl = ll[0];
       const double cm = (cu * a.theta + cl * b.theta) / tsum;
       int r = 3 * w0;
@@ -1007,7 +1055,8 @@ class CoupledSystem {
     // it after the step are then put on it (their delta* raised), so that one station near the
     // floor cannot freeze the whole solution.
     std::vector<double> h_floor(static_cast<std::size_t>(n), 0.0);
-    for (int i = 0; i < n; ++i) h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
+    for (int i = 0; i < n; ++i)
+      h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
     bool floor_fix = false;
     for (int k = 0; k < 20; ++k) {
       bool sign_ok = true, floor_ok = true;
@@ -1118,10 +1167,10 @@ class CoupledSystem {
   std::vector<int> g_count_, g_col_;
   std::vector<double> g_val_;
   std::vector<SpeedTerm> g_spill_;
-  std::vector<Eigen::Matrix3d> blocks_;          // up to 3 L blocks per station
+  std::vector<Eigen::Matrix3d> blocks_;           // up to 3 L blocks per station
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
-  std::vector<int> order_;                       // marching order of the stations
-  RowMatrix rhs_;                                // 3 n by n + 1: [-r, G D], then L^-1 of it
+  std::vector<int> order_;                        // marching order of the stations
+  RowMatrix rhs_;                                 // 3 n by n + 1: [-r, G D], then L^-1 of it
   Eigen::MatrixXd cap_t_;  // n by n: the capacitance matrix I + P W, transposed
   Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu_;
   Eigen::VectorXd dm_, dm_solved_, z_;
@@ -1139,6 +1188,10 @@ class CoupledSystem {
   int previous_transition_[2] = {-1, -1};  // BL position of the last assignment (-1: none yet)
   bool transition_limited_ = false;
   double transition_weight_[2] = {1.0, 1.0};
+  bool release_[2] = {false, false};  // hysteresis released for the next assignment
+  Eigen::MatrixXd filter_rows_;       // scratch of set_stagnation's wake filter
+  Eigen::VectorXd filter_q_;
+  int settles_ = 0;
 };
 
 }  // namespace
@@ -1181,7 +1234,8 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
     total += r.iterations;
   }
   ViscousResult cold = solve_on(model, alpha_deg, nullptr);
-  if (cold.converged || !warm) return finish(std::move(cold), warm ? "cold start after the warm start failed" : "");
+  if (cold.converged || !warm)
+    return finish(std::move(cold), warm ? "cold start after the warm start failed" : "");
   total += cold.iterations;
   // Continuation from the warm state's angle: halve the remaining step until a sub-step
   // converges, then go on from there.
@@ -1232,14 +1286,23 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   int it = 0;
   std::size_t last_move = 0;
   int moved_upper = -2, moved_lower = -2;
+  std::optional<CoupledSystem> settled_from;
+  double settled_residual = INFINITY;
   for (; it < options_.max_iterations; ++it) {
     sys.prepare_iteration();
     r = sys.assemble();
     res.residual_history.push_back(r);
     if (!std::isfinite(r)) break;
     if (r < options_.tolerance && it > 0 && !sys.transition_limited()) {
-      done = true;
-      break;
+      if (!sys.needs_settling()) {
+        done = true;
+        break;
+      }
+      // This converged state stands if the settled representation does not converge.
+      settled_from.emplace(sys);
+      settled_residual = r;
+      sys.settle_transition();
+      continue;
     }
     // Give up early when the residual has stopped falling (a fallback start is cheaper); a
     // move of the transition interval raises it legitimately and restarts the count.
@@ -1265,6 +1328,13 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
       break;
     }
   }
+  // The settled representation did not converge: the converged state before it stands.
+  const bool use_settled = !done && settled_from.has_value();
+  if (use_settled) {
+    done = true;
+    r = settled_residual;
+  }
+  const CoupledSystem& fin = use_settled ? *settled_from : sys;
   res.iterations = it;
   res.residual = r;
   std::ostringstream msg;
@@ -1284,25 +1354,25 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.reason = msg.str();
 
   // Outputs from the final state.
-  const Layout& lay = sys.layout();
+  const Layout& lay = fin.layout();
   const int ns = lay.n_surface, nw = lay.n_wake;
-  const Eigen::VectorXd& ue = sys.ue();
+  const Eigen::VectorXd& ue = fin.ue();
   Eigen::VectorXd q = lay.sign.head(ns).cwiseProduct(ue.head(ns));
   res.ue = q;
-  res.theta = sys.theta().head(ns);
+  res.theta = fin.theta().head(ns);
   res.dstar.resize(ns);
   res.shape.resize(ns);
   res.cf.resize(ns);
-  res.amplification = sys.c().head(ns);
+  res.amplification = fin.c().head(ns);
   for (int i = 0; i < ns; ++i) {
-    const StationState s = sys.station(i);
+    const StationState s = fin.station(i);
     res.dstar(i) = s.dstar;
     res.shape(i) = s.dstar / s.theta;
-    res.cf(i) = skin_friction(sys.kinds()[i], s, flow_);
+    res.cf(i) = skin_friction(fin.kinds()[i], s, flow_);
   }
-  res.wake_theta = sys.theta().tail(nw);
+  res.wake_theta = fin.theta().tail(nw);
   res.wake_ue = ue.tail(nw);
-  res.wake_dstar = sys.mu().tail(nw).cwiseQuotient(ue.tail(nw));
+  res.wake_dstar = fin.mu().tail(nw).cwiseQuotient(ue.tail(nw));
   InviscidResult loads;
   inviscid_.loads_from_speed(alpha, q, loads);
   res.cl = loads.cl;
@@ -1310,7 +1380,7 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.cp = loads.cp;
   // Squire-Young at the wake end.
   const int last = lay.n - 1;
-  const StationState se = sys.station(last);
+  const StationState se = fin.station(last);
   const double h_end = (se.dstar - lay.gap(last)) / se.theta;
   res.cd = 2.0 * se.theta * std::pow(std::max(se.ue, 1e-6), 0.5 * (h_end + 5.0));
   // Friction drag: wall shear along the local flow direction, projected on the free stream.
@@ -1318,7 +1388,7 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   const Eigen::Vector2d e(std::cos(alpha), std::sin(alpha));
   double cdf = 0.0;
   for (int side = 0; side < 2; ++side) {
-    const std::vector<int> idx = sys.side_nodes(side);
+    const std::vector<int> idx = fin.side_nodes(side);
     for (std::size_t p = 1; p < idx.size(); ++p) {
       const int i1 = idx[p - 1], i2 = idx[p];
       const Eigen::Vector2d t = (nodes.row(i2) - nodes.row(i1)).transpose();
@@ -1329,11 +1399,11 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.cd_pressure = res.cd - res.cd_friction;
   // Transition points as x/c.
   for (int side = 0; side < 2; ++side) {
-    const int p = sys.transition_interval(side);
+    const int p = fin.transition_interval(side);
     double xt = 1.0;
     if (p > 0) {
-      const std::vector<int> idx = sys.side_nodes(side);
-      const double w = sys.transition_weight(side);
+      const std::vector<int> idx = fin.side_nodes(side);
+      const double w = fin.transition_weight(side);
       xt = lay.x(idx[p - 1]) + w * (lay.x(idx[p]) - lay.x(idx[p - 1]));
     }
     (side == 0 ? res.transition_upper : res.transition_lower) = xt;
@@ -1342,8 +1412,8 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.state.alpha = alpha_deg;
   res.state.stagnation_node = lay.stag;
   res.state.stations.resize(static_cast<std::size_t>(lay.n));
-  res.state.kinds = sys.kinds();
-  for (int i = 0; i < lay.n; ++i) res.state.stations[i] = sys.station(i);
+  res.state.kinds = fin.kinds();
+  for (int i = 0; i < lay.n; ++i) res.state.stations[i] = fin.station(i);
   // Never a NaN in the outputs.
   const double scalars[] = {res.cl, res.cd, res.cm, res.cd_friction, res.cd_pressure};
   bool finite = true;
