@@ -16,6 +16,8 @@ namespace {
 
 constexpr double kDeg = std::numbers::pi / 180.0;
 constexpr int kFloorHalvings = 3;
+// Newton iterations a settled transition (CoupledSystem::settle_transition) gets to converge.
+constexpr int kSettleIterations = 8;
 
 void require(bool ok, const std::string& field, double value, const std::string& rule) {
   if (ok) return;
@@ -194,28 +196,6 @@ class CoupledSystem {
     for (int i = stag + 1; i < lay_.n_surface; ++i) lay_.sign(i) = -1.0;
     lay_.ue_inviscid = lay_.sign.cwiseProduct(model_.edge_velocity);
     lay_.d = lay_.sign.asDiagonal() * model_.mass_influence * lay_.sign.asDiagonal();
-    // The wake rows of the coupling, smoothed node to node. At a wake node the constant-source
-    // panels on either side are evaluated by a finite part (a jump of source strength has a
-    // logarithmically infinite tangential velocity at the node), which gives the node-to-node
-    // (odd-even) mode of the mass defect an arbitrary response; the coupled equations then admit
-    // sawtooth wake solutions beside the smooth one (NACA 2412, Re 6e6, 4 deg, 160 panels: two
-    // converged solutions with cd 0.00640 and 0.00728, the second with a sawtooth in the
-    // near-wake theta, reached by marching up or down in angle). A [1 2 1]/4 filter of the rows
-    // from the second wake node on and a lighter [1 6 1]/8 at the first removes the mode. (The
-    // full filter at the first node, next to the trailing edge where the wake speed changes fast
-    // near stall, gave NACA 0012 at Re 6e6 a spurious branch with cl 1.99 at 18 deg.)
-    {
-      const int w0 = lay_.n_surface;
-      filter_rows_ = lay_.d.middleRows(w0, lay_.n_wake);
-      filter_q_ = lay_.ue_inviscid.segment(w0, lay_.n_wake);
-      for (int j = 1; j + 1 < lay_.n_wake; ++j) {
-        const double e = j == 1 ? 0.125 : 0.25;
-        lay_.d.row(w0 + j) = e * (filter_rows_.row(j - 1) + filter_rows_.row(j + 1)) +
-                             (1.0 - 2.0 * e) * filter_rows_.row(j);
-        lay_.ue_inviscid(w0 + j) =
-            e * (filter_q_(j - 1) + filter_q_(j + 1)) + (1.0 - 2.0 * e) * filter_q_(j);
-      }
-    }
   }
 
   // Cold start: march both surfaces and the wake on the inviscid edge velocity. (A second march
@@ -1189,8 +1169,6 @@ class CoupledSystem {
   bool transition_limited_ = false;
   double transition_weight_[2] = {1.0, 1.0};
   bool release_[2] = {false, false};  // hysteresis released for the next assignment
-  Eigen::MatrixXd filter_rows_;       // scratch of set_stagnation's wake filter
-  Eigen::VectorXd filter_q_;
   int settles_ = 0;
 };
 
@@ -1288,6 +1266,7 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   int moved_upper = -2, moved_lower = -2;
   std::optional<CoupledSystem> settled_from;
   double settled_residual = INFINITY;
+  int settled_at = 0;
   for (; it < options_.max_iterations; ++it) {
     sys.prepare_iteration();
     r = sys.assemble();
@@ -1298,12 +1277,15 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
         done = true;
         break;
       }
-      // This converged state stands if the settled representation does not converge.
+      // This converged state stands if the settled representation does not converge within
+      // kSettleIterations (when the move starts the transition running, it does not).
       settled_from.emplace(sys);
       settled_residual = r;
+      settled_at = it;
       sys.settle_transition();
       continue;
     }
+    if (settled_from && it - settled_at > kSettleIterations) break;
     // Give up early when the residual has stopped falling (a fallback start is cheaper); a
     // move of the transition interval raises it legitimately and restarts the count.
     const std::size_t h = res.residual_history.size();
