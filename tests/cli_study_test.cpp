@@ -90,11 +90,12 @@ TEST(CliStudy, CheckListsPointsChainsAndShards) {
   const CliResult r = run_fulmar({"study", (source_dir() / "cases/study_thickness.json").string(),
                                   "--check", "--shard", "1/2"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
-  EXPECT_NE(r.out.find("5 points in chains of 3"), std::string::npos) << r.out;
-  EXPECT_NE(r.out.find("point 3  minimum t/c = 0.14  chain 1, starts from point 2, shard 1/2"),
+  // The shipped study runs its five points in one chain, thickest bound first.
+  EXPECT_NE(r.out.find("5 points in chains of 5"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("point 1  minimum t/c = 0.18  chain 1, starts from the baseline, shard 1/2"),
             std::string::npos)
       << r.out;
-  EXPECT_NE(r.out.find("point 4  minimum t/c = 0.16  chain 2, starts from the baseline, shard 2/2"),
+  EXPECT_NE(r.out.find("point 5  minimum t/c = 0.1  chain 1, starts from point 4, shard 1/2"),
             std::string::npos)
       << r.out;
 }
