@@ -581,6 +581,7 @@ Case parse_case(const std::string& text, const std::string& label,
     }
   }
   c.baseline = read_baseline(r.child("baseline"), base_dir);
+  if (auto s = r.optional_child("second_start")) c.second_start = read_baseline(*s, base_dir);
   if (auto o = r.optional_child("optimizer")) c.optimizer = read_optimizer(*o);
   if (auto a = r.optional_child("analysis")) c.analysis = read_analysis(*a);
   if (auto o = r.optional_child("outputs")) {

@@ -155,6 +155,11 @@ struct Case {
   Constraints constraints;
   Parameterization parameterization;
   Baseline baseline;
+  // Where a second local search starts (same forms as the baseline), after the one from the
+  // baseline; each gets half the evaluation budget and the result is the best design of both.
+  // A trade study keeps it for every point, whose baseline is its neighbour's optimum, so every
+  // point also searches from this fixed design.
+  std::optional<Baseline> second_start;
   OptimizerOptions optimizer;
   AnalysisOptions analysis;
   OutputOptions outputs;

@@ -73,14 +73,34 @@ class Search {
       if (s_.options.algorithm == Algorithm::multistart) {
         run_multistart(r);
       } else {
-        r.converged = run_local(s_.options.algorithm, p_.start, r.stop_reason);
-        restart_local(r);
+        const int searches = 1 + int(p_.extra_starts.size());
+        for (int k = 0; k < searches; ++k) {
+          current_search_ = k;
+          // This search's share of the budget ends here (the last one's at the budget itself).
+          share_end_ = k + 1 < searches ? s_.options.max_evaluations * (k + 1) / searches
+                                        : std::numeric_limits<int>::max();
+          SearchResult part;
+          part.converged =
+              run_local(s_.options.algorithm, k == 0 ? p_.start : p_.extra_starts[size_t(k - 1)],
+                        part.stop_reason);
+          restart_local(part);
+          r.converged = k == 0 ? part.converged : r.converged && part.converged;
+          r.stop_reason = searches == 1 ? part.stop_reason
+                                        : r.stop_reason + (k == 0 ? "" : "; ") + "from start " +
+                                              std::to_string(k + 1) + ": " + part.stop_reason;
+          finished_searches_ = r.stop_reason;
+        }
       }
     } catch (const StopSearch&) {
       r.converged = false;
     }
     if (!stop_reason_.empty()) {
-      r.stop_reason = stop_reason_;
+      // With several starts, what the finished local searches ended on comes first.
+      r.stop_reason = p_.extra_starts.empty()
+                          ? stop_reason_
+                          : finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
+                                "from start " + std::to_string(current_search_ + 1) + ": " +
+                                stop_reason_;
       r.converged = false;
     }
     // The start design is always analysed, even when a limit stops the search at once.
@@ -117,6 +137,10 @@ class Search {
     if (s_.stop && s_.stop->load()) {
       interrupted_ = true;
       stop_reason_ = "interrupted by a signal";
+      throw nlopt::forced_stop();
+    }
+    if (int(history_.size()) >= share_end_) {
+      share_spent_ = true;
       throw nlopt::forced_stop();
     }
     if (int(history_.size()) >= s_.options.max_evaluations) {
@@ -376,6 +400,11 @@ class Search {
           return false;
       }
     } catch (const nlopt::forced_stop&) {
+      if (share_spent_ && stop_reason_.empty()) {
+        share_spent_ = false;
+        reason = "its share of the evaluation budget spent";
+        return false;
+      }
       if (stop_reason_.empty()) reason = "stopped";
       throw StopSearch{};
     } catch (const nlopt::roundoff_limited&) {
@@ -485,6 +514,10 @@ class Search {
   Clock::time_point started_;
   double prior_elapsed_ = 0;
   int iterations_ = 0;
+  int share_end_ = std::numeric_limits<int>::max();  // history size that ends this local search
+  bool share_spent_ = false;
+  int current_search_ = 0;
+  std::string finished_searches_;  // stop reasons of the finished local searches (several starts)
   int replayed_ = 0;
   std::string stop_reason_;
   bool interrupted_ = false;

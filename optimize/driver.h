@@ -37,6 +37,10 @@ double worst_constraint(const Evaluation& e);
 struct SearchProblem {
   std::vector<double> lower, upper;  // bounds, #variables each
   std::vector<double> start;         // the baseline design, within the bounds
+  // Further starts of the local algorithms (slsqp, mma, cobyla), each within the bounds: the
+  // search from `start` and one from each of these share the evaluation budget equally (the last
+  // takes what is left), in this order.
+  std::vector<std::vector<double>> extra_starts;
   std::vector<std::string> constraint_names;
   // Must be thread-safe and deterministic (depends on x only).
   std::function<Evaluation(const std::vector<double>& x)> evaluate;

@@ -120,6 +120,76 @@ TEST(Driver, AnEarlyLocalStopIsRestartedFromTheBestFeasibleDesign) {
   EXPECT_LT(r.history[size_t(r.best)].objective, 0.5 * 10.11) << r.stop_reason;
 }
 
+// A double well: f = (x0^2 - 1)^2 + 0.3 x0 + x1^2 has a local minimum near x0 = 0.96 (f about
+// 0.294) and the global one near x0 = -1.04 (f about -0.305; both from f' = 4 x0 (x0^2 - 1) + 0.3
+// = 0 by hand). SLSQP from x0 = 1.5 finds the local one; a second start at x0 = -1.5 reaches the
+// global one within its half of the budget.
+SearchProblem double_well() {
+  SearchProblem p;
+  p.lower = {-2, -2};
+  p.upper = {2, 2};
+  p.start = {1.5, 0.5};
+  p.evaluate = [](const std::vector<double>& x) {
+    Evaluation e;
+    e.ok = true;
+    e.status = "ok";
+    e.objective = std::pow(x[0] * x[0] - 1, 2) + 0.3 * x[0] + x[1] * x[1];
+    return e;
+  };
+  return p;
+}
+
+TEST(Driver, ASecondStartSharesTheBudgetAndCanFindABetterBasin) {
+  const SearchSettings s = settings(Algorithm::slsqp, 200);
+  const SearchResult alone = run_search(double_well(), s);
+  ASSERT_GE(alone.best, 0) << alone.stop_reason;
+  EXPECT_NEAR(alone.history[size_t(alone.best)].x[0], 0.96, 0.01);
+
+  SearchProblem p = double_well();
+  p.extra_starts = {{-1.5, 0.5}};
+  const SearchResult both = run_search(p, s);
+  ASSERT_GE(both.best, 0) << both.stop_reason;
+  EXPECT_NEAR(both.history[size_t(both.best)].x[0], -1.04, 0.01);
+  EXPECT_NEAR(both.history[size_t(both.best)].objective, -0.305, 0.002);
+  // The second search starts at its design, after the first, within the first half.
+  size_t second = both.history.size();
+  for (size_t i = 0; i < both.history.size() && second == both.history.size(); ++i)
+    if (both.history[i].x == p.extra_starts[0]) second = i;
+  ASSERT_LT(second, both.history.size());
+  EXPECT_GT(second, 0u);
+  EXPECT_LE(second, 100u);
+  EXPECT_NE(both.stop_reason.find("from start 2"), std::string::npos) << both.stop_reason;
+}
+
+TEST(Driver, TheFirstSearchStopsAtItsShareOfTheBudget) {
+  // With ftol 1e-12 on a bowl whose minimum is at the bound-free point (0, 0), SLSQP from the
+  // start would take every evaluation it is given; with a second start it must stop at 20 of 40.
+  SearchProblem p;
+  p.lower = {-2, -2};
+  p.upper = {2, 2};
+  p.start = {1.5, 0.5};
+  p.extra_starts = {{-1.5, -0.5}};
+  p.evaluate = [](const std::vector<double>& x) {
+    Evaluation e;
+    e.ok = true;
+    e.status = "ok";
+    e.objective = std::pow(x[0], 4) + std::pow(x[1], 4);
+    return e;
+  };
+  const SearchResult r = run_search(p, settings(Algorithm::slsqp, 40));
+  size_t second = r.history.size();
+  for (size_t i = 0; i < r.history.size() && second == r.history.size(); ++i)
+    if (r.history[i].x == p.extra_starts[0]) second = i;
+  ASSERT_LT(second, r.history.size()) << r.stop_reason;
+  // The limits are checked before each iteration, whose 3 designs (a point and its two
+  // finite-difference neighbours) may overrun them (as for the whole budget).
+  EXPECT_GE(second, 20u) << r.stop_reason;
+  EXPECT_LE(second, 20u + 3u) << r.stop_reason;
+  EXPECT_NE(r.stop_reason.find("share of the evaluation budget"), std::string::npos)
+      << r.stop_reason;
+  EXPECT_LE(r.history.size(), 40u + 3u);
+}
+
 TEST(Driver, NeverAnalysesTheSameDesignTwice) {
   Quadratic q;
   const SearchResult r = run_search(q.problem(), settings(Algorithm::slsqp));

@@ -288,6 +288,14 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
     for (size_t i = 0; i < search.start.size(); ++i)
       search.start[i] = std::clamp(search.start[i], search.lower[i], search.upper[i]);
   }
+  if (c.second_start) {
+    const CstShape st = resolve_shape(c, *c.second_start).shape;
+    std::vector<double> x(search.start.size());
+    for (Eigen::Index i = 0; i < st.upper.size(); ++i) x[size_t(i)] = st.upper[i];
+    for (Eigen::Index i = 0; i < st.lower.size(); ++i) x[size_t(st.upper.size() + i)] = st.lower[i];
+    for (size_t i = 0; i < x.size(); ++i) x[i] = std::clamp(x[i], search.lower[i], search.upper[i]);
+    if (x != search.start) search.extra_starts.push_back(x);
+  }
   fs::create_directories(dir);
   const SearchResult r = run_search(search, settings);
   const double tol = c.optimizer.constraint_tol;

@@ -12,6 +12,7 @@
 #include "common/error.h"
 #include "geometry/cst.h"
 #include "geometry/naca.h"
+#include "optimize/section_problem.h"
 #include "optimize/testing/analytic_evaluator.h"
 
 namespace fulmar::optimize {
@@ -268,6 +269,29 @@ TEST(Run, AnOrdinarySearchDoesNotKeepItsStart) {
   EXPECT_FALSE(out.summary["optimum_is_start"].get<bool>());
   EXPECT_LT(out.summary["optimized"]["weighted_cd"].get<double>(),
             out.summary["baseline"]["weighted_cd"].get<double>());
+  fs::remove_all(dir);
+}
+
+TEST(Run, ASecondStartIsSearchedFromToo) {
+  const fs::path dir = scratch("second_start");
+  testing::AnalyticEvaluator ev;
+  Case c = small_case(80);
+  Baseline b;
+  b.kind = Baseline::Kind::naca;
+  b.naca = "2412";
+  b.json_path = "/second_start";
+  c.second_start = b;
+  RunOptions o;
+  o.output_dir = dir;
+  o.threads = 2;
+  const RunOutcome out = run_optimization(c, ev, o);
+  const std::string reason = out.summary["stop_reason"].get<std::string>();
+  EXPECT_NE(reason.find("from start 2"), std::string::npos) << reason;
+  // Its first design is the NACA 2412 fitted at the case's orders.
+  const CstShape s = resolve_shape(c, b).shape;
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.17g", s.upper[0]);
+  EXPECT_NE(slurp(dir / "history.csv").find(buf), std::string::npos);
   fs::remove_all(dir);
 }
 

@@ -151,28 +151,32 @@ json to_json(const GeometryMeasures& g) {
 }
 
 BaselineShape resolve_baseline(const Case& c) {
+  return resolve_shape(c, c.baseline);
+}
+
+BaselineShape resolve_shape(const Case& c, const Baseline& base) {
   const Parameterization& p = c.parameterization;
   const std::string where = c.path.string().empty() ? std::string("case") : c.path.string();
   BaselineShape b;
   Section source;
   bool fit = true;
-  switch (c.baseline.kind) {
+  switch (base.kind) {
     case Baseline::Kind::naca:
-      source = naca_section(c.baseline.naca, 201);
-      b.name = "NACA " + c.baseline.naca;
+      source = naca_section(base.naca, 201);
+      b.name = "NACA " + base.naca;
       break;
     case Baseline::Kind::file: {
       try {
-        source = read_coordinates(c.baseline.file).section;
+        source = read_coordinates(base.file).section;
       } catch (const InputError& e) {
-        throw InputError(where + ": " + c.baseline.json_path + "/file: " + e.what());
+        throw InputError(where + ": " + base.json_path + "/file: " + e.what());
       }
-      b.name = source.name.empty() ? c.baseline.file.filename().string() : source.name;
+      b.name = source.name.empty() ? base.file.filename().string() : source.name;
       break;
     }
     case Baseline::Kind::cst: {
-      b.shape = cst_from_json(c.baseline.cst, where + ": " + c.baseline.json_path + "/cst");
-      b.name = c.baseline.cst.value("name", std::string("CST baseline"));
+      b.shape = cst_from_json(base.cst, where + ": " + base.json_path + "/cst");
+      b.name = base.cst.value("name", std::string("CST baseline"));
       if (b.shape.upper.size() == p.order_upper + 1 && b.shape.lower.size() == p.order_lower + 1) {
         fit = false;
       } else {

@@ -23,6 +23,8 @@ struct BaselineShape {
 // Builds the baseline. Throws InputError naming /baseline/... for a file or CST JSON that cannot be
 // read, or /parameterization/te_gap when the gap cannot be applied.
 BaselineShape resolve_baseline(const Case& c);
+// The same for another design given like the baseline (e.g. the case's second_start).
+BaselineShape resolve_shape(const Case& c, const Baseline& b);
 
 // The design vector: [upper a_0..a_n, lower a_0..a_m]; the trailing-edge heights stay those of
 // `layout`.
