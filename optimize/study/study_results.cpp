@@ -426,7 +426,11 @@ std::string study_report(const StudyDefinition& study, const std::vector<PointRe
        "rule does not "
        "depend on how the study was split into shards or jobs, so every split gives the same "
        "results. A warm start "
-       "re-centres the coefficient bounds (the case's margin) on the starting section.\n"
+       "re-centres the coefficient bounds (the case's margin) on the starting section.";
+  if (study.base_case.contains("second_start"))
+    m << " Every point also searches from the case's `second_start` (half the analyses each), so "
+         "that a point is not held in its neighbour's basin.";
+  m << "\n"
     << "- The optimizer's tolerances apply to every point: differences in cd below them are "
        "noise.\n\n";
   m << "## Files\n\n`study.csv` (every point: swept values, cd at each design point, every "
