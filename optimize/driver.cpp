@@ -85,22 +85,17 @@ class Search {
                         part.stop_reason);
           restart_local(part);
           r.converged = k == 0 ? part.converged : r.converged && part.converged;
-          r.stop_reason = searches == 1 ? part.stop_reason
-                                        : r.stop_reason + (k == 0 ? "" : "; ") + "from start " +
-                                              std::to_string(k + 1) + ": " + part.stop_reason;
-          finished_searches_ = r.stop_reason;
+          finished_searches_ += (k == 0 ? "" : "; ") + search_label(k) + part.stop_reason;
         }
+        r.stop_reason = finished_searches_;
       }
     } catch (const StopSearch&) {
       r.converged = false;
     }
     if (!stop_reason_.empty()) {
       // With several starts, what the finished local searches ended on comes first.
-      r.stop_reason = p_.extra_starts.empty()
-                          ? stop_reason_
-                          : finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
-                                "from start " + std::to_string(current_search_ + 1) + ": " +
-                                stop_reason_;
+      r.stop_reason = finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
+                      search_label(current_search_) + stop_reason_;
       r.converged = false;
     }
     // The start design is always analysed, even when a limit stops the search at once.
@@ -517,6 +512,10 @@ class Search {
   int share_end_ = std::numeric_limits<int>::max();  // history size that ends this local search
   bool share_spent_ = false;
   int current_search_ = 0;
+  // "from start k: " before a stop reason when there are several starts, "" otherwise.
+  std::string search_label(int k) const {
+    return p_.extra_starts.empty() ? std::string() : "from start " + std::to_string(k + 1) + ": ";
+  }
   std::string finished_searches_;  // stop reasons of the finished local searches (several starts)
   int replayed_ = 0;
   std::string stop_reason_;

@@ -24,6 +24,16 @@
 namespace fulmar::optimize {
 namespace {
 
+// The design vector [upper a_0.., lower a_0..] of a shape at the search's orders, clamped into
+// its bounds.
+std::vector<double> clamped_design(const CstShape& st, const SearchProblem& search) {
+  std::vector<double> x(search.start.size());
+  for (Eigen::Index i = 0; i < st.upper.size(); ++i) x[size_t(i)] = st.upper[i];
+  for (Eigen::Index i = 0; i < st.lower.size(); ++i) x[size_t(st.upper.size() + i)] = st.lower[i];
+  for (size_t i = 0; i < x.size(); ++i) x[i] = std::clamp(x[i], search.lower[i], search.upper[i]);
+  return x;
+}
+
 namespace fs = std::filesystem;
 using nlohmann::json;
 
@@ -282,18 +292,10 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
                        std::to_string(st.lower.size() - 1) + " differ from the case's " +
                        std::to_string(c.parameterization.order_upper) + "/" +
                        std::to_string(c.parameterization.order_lower));
-    for (Eigen::Index i = 0; i < st.upper.size(); ++i) search.start[size_t(i)] = st.upper[i];
-    for (Eigen::Index i = 0; i < st.lower.size(); ++i)
-      search.start[size_t(st.upper.size() + i)] = st.lower[i];
-    for (size_t i = 0; i < search.start.size(); ++i)
-      search.start[i] = std::clamp(search.start[i], search.lower[i], search.upper[i]);
+    search.start = clamped_design(st, search);
   }
   if (c.second_start) {
-    const CstShape st = resolve_shape(c, *c.second_start).shape;
-    std::vector<double> x(search.start.size());
-    for (Eigen::Index i = 0; i < st.upper.size(); ++i) x[size_t(i)] = st.upper[i];
-    for (Eigen::Index i = 0; i < st.lower.size(); ++i) x[size_t(st.upper.size() + i)] = st.lower[i];
-    for (size_t i = 0; i < x.size(); ++i) x[i] = std::clamp(x[i], search.lower[i], search.upper[i]);
+    const std::vector<double> x = clamped_design(resolve_shape(c, *c.second_start).shape, search);
     if (x != search.start) search.extra_starts.push_back(x);
   }
   fs::create_directories(dir);
