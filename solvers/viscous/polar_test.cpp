@@ -361,13 +361,19 @@ TEST(PolarOptions, ValidateNamesTheField) {
   EXPECT_NE(message(o).find("2001"), std::string::npos);
 }
 
-// Real polar: NACA 0012, Re 6e6, free transition (N 9), 160 panels, -2 .. 8 deg.
-TEST(SweepPolar, Naca0012AtSixMillion) {
+// A viscous solver for a NACA section at chord Reynolds number `re`, free transition (N 9),
+// 160 panels: the set-up of every real-section sweep below.
+ViscousSolver section_solver(const std::string& naca, double re) {
   PanellingOptions po;
   po.panels = 160;
   ViscousOptions vo;
-  vo.reynolds = 6.0e6;
-  const ViscousSolver solver(panel_nodes(naca_section("0012"), po), vo);
+  vo.reynolds = re;
+  return ViscousSolver(panel_nodes(naca_section(naca), po), vo);
+}
+
+// Real polar: NACA 0012, Re 6e6, free transition (N 9), 160 panels, -2 .. 8 deg.
+TEST(SweepPolar, Naca0012AtSixMillion) {
+  const ViscousSolver solver = section_solver("0012", 6.0e6);
   PolarOptions o;
   o.alpha_from = -2;
   o.alpha_to = 8;
@@ -410,11 +416,7 @@ TEST(SweepPolar, Naca0012AtSixMillion) {
 // The stall range of a NACA section at Re 6e6, free transition, 160 panels: 12..21 deg in 1-deg
 // steps (reached by the lead-in march from zero lift); `options` receives the grid used.
 Polar stall_polar(const std::string& naca, PolarOptions& options) {
-  PanellingOptions po;
-  po.panels = 160;
-  ViscousOptions vo;
-  vo.reynolds = 6.0e6;
-  const ViscousSolver solver(panel_nodes(naca_section(naca), po), vo);
+  const ViscousSolver solver = section_solver(naca, 6.0e6);
   options.alpha_from = 12;
   options.alpha_to = 21;
   options.alpha_step = 1;
@@ -472,11 +474,7 @@ TEST(SweepPolar, Naca2412MaximumLiftAtSixMillion) {
 // over its whole set (5 %, bench/bench_polar), rounded up. Measured 36 of 37; 14 of 37 when a
 // transition moving upstream replaced the crossed station's shape factor by the downstream one.
 TEST(SweepPolar, Naca4415AtLowReynoldsNumberConvergesBelowStall) {
-  PanellingOptions po;
-  po.panels = 160;
-  ViscousOptions vo;
-  vo.reynolds = 2.0e5;
-  const ViscousSolver solver(panel_nodes(naca_section("4415"), po), vo);
+  const ViscousSolver solver = section_solver("4415", 2.0e5);
   PolarOptions o;
   o.alpha_from = -4;
   o.alpha_to = 14;
