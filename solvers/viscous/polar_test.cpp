@@ -371,16 +371,27 @@ ViscousSolver section_solver(const std::string& naca, double re) {
   return ViscousSolver(panel_nodes(naca_section(naca), po), vo);
 }
 
+// Polar options for the angle grid from_deg..to_deg in step_deg steps, other options default.
+PolarOptions angle_grid(double from_deg, double to_deg, double step_deg) {
+  PolarOptions o;
+  o.alpha_from = from_deg;
+  o.alpha_to = to_deg;
+  o.alpha_step = step_deg;
+  return o;
+}
+
+// The number of converged points of a polar.
+int converged_points(const Polar& p) {
+  int n = 0;
+  for (const ViscousResult& r : p.points) n += r.converged;
+  return n;
+}
+
 // Real polar: NACA 0012, Re 6e6, free transition (N 9), 160 panels, -2 .. 8 deg.
 TEST(SweepPolar, Naca0012AtSixMillion) {
   const ViscousSolver solver = section_solver("0012", 6.0e6);
-  PolarOptions o;
-  o.alpha_from = -2;
-  o.alpha_to = 8;
-  o.alpha_step = 1;
-  const Polar p = sweep_polar(solver, o);
-  int converged = 0;
-  for (const ViscousResult& r : p.points) converged += r.converged;
+  const Polar p = sweep_polar(solver, angle_grid(-2, 8, 1));
+  const int converged = converged_points(p);
   // All of -2..8 deg is well below stall (about 16 deg at this Re; Abbott & von Doenhoff 1959,
   // from memory) and the solver converges there from cold starts: every point must converge.
   EXPECT_EQ(converged, 11);
@@ -475,16 +486,11 @@ TEST(SweepPolar, Naca2412MaximumLiftAtSixMillion) {
 // transition moving upstream replaced the crossed station's shape factor by the downstream one.
 TEST(SweepPolar, Naca4415AtLowReynoldsNumberConvergesBelowStall) {
   const ViscousSolver solver = section_solver("4415", 2.0e5);
-  PolarOptions o;
-  o.alpha_from = -4;
-  o.alpha_to = 14;
-  o.alpha_step = 0.5;
+  PolarOptions o = angle_grid(-4, 14, 0.5);
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solver, o);
-  int converged = 0;
-  for (const ViscousResult& r : p.points) converged += r.converged;
   ASSERT_EQ(p.points.size(), 37u);
-  EXPECT_GE(converged, 34);
+  EXPECT_GE(converged_points(p), 34);
 }
 
 }  // namespace
