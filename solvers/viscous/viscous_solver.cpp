@@ -624,25 +624,21 @@ class CoupledSystem {
             // laminar) keeps the laminar reset below: a laminar station with a turbulent H ~ 1.5
             // led NACA 4412 Re 1e6 near zero lift onto a second, lower-lift solution.
             const bool one_upstream = p == q - 1 && first == q - 1;
-            if (one_upstream) {
+            if (one_upstream || d < 0) {
+              // The state stays; c is the initial shear stress of the station's own state.
               const StationState s2 = station(i);
               const Closure<double> k =
                   close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow_);
               c_(i) = transition_ctau_root(k);
-            } else if (d >= 0 && separated) {
+            } else if (separated) {
               // Transition in a separated laminar layer: the state is continuous through it
               // (only c changes meaning); the turbulent equations reattach the layer from there.
               c_(i) = c_(d);
-            } else if (d >= 0) {
+            } else {
               const double h = std::clamp((station(d).dstar - lay_.gap(d)) / th_(d), 1.3, 2.2);
               mu_(i) = dstar_speed(i) * (h * th_(i) + lay_.gap(i));
               c_(i) = c_(d);
               moved_mass = true;
-            } else {
-              const StationState s2 = station(i);
-              const Closure<double> k =
-                  close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow_);
-              c_(i) = transition_ctau_root(k);
             }
           }
           kinds_[i] = LayerKind::kTurbulent;
