@@ -594,12 +594,16 @@ Case parse_case(const std::string& text, const std::string& label,
   return c;
 }
 
+std::filesystem::path folder_of(const std::filesystem::path& file) {
+  return file.has_parent_path() ? file.parent_path() : std::filesystem::path(".");
+}
+
 Case load_case(const std::filesystem::path& path) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path.string() + ": cannot read the case file");
   std::stringstream ss;
   ss << in.rdbuf();
-  Case c = parse_case(ss.str(), path.string(), path.parent_path());
+  Case c = parse_case(ss.str(), path.string(), folder_of(path));
   c.path = path;
   return c;
 }

@@ -176,4 +176,8 @@ Case load_case(const std::filesystem::path& path);
 Case parse_case(const std::string& text, const std::string& label,
                 const std::filesystem::path& base_dir);
 
+// The folder that holds `file`: its parent path, or "." for a bare file name, so that paths
+// relative to it resolve and it can be made absolute (an empty path cannot).
+std::filesystem::path folder_of(const std::filesystem::path& file);
+
 }  // namespace fulmar::optimize

@@ -261,7 +261,7 @@ StudyDefinition load_study(const std::filesystem::path& path) {
   if (!in) throw InputError(path.string() + ": cannot read the study case file");
   std::stringstream ss;
   ss << in.rdbuf();
-  StudyDefinition s = parse_study(ss.str(), path.string(), path.parent_path());
+  StudyDefinition s = parse_study(ss.str(), path.string(), optimize::folder_of(path));
   s.case_path = path;
   return s;
 }
