@@ -164,4 +164,48 @@ Eigen::Vector2d velocity_source_constant(const Frame& f, const Eigen::Vector2d& 
   return to_global(f, (l.ln1 - l.ln2) / kTwoPi, dtheta_mean(l) / kTwoPi);
 }
 
+void velocity_source_linear(const Frame& f, const Eigen::Vector2d& p, double log_scale,
+                            Eigen::Vector2d& va, Eigen::Vector2d& vb) {
+  const Local l = local(f, p, log_scale);
+  const double lnr = l.ln1 - l.ln2, dth = dtheta_mean(l);
+  // Unit constant sheet (u0, v0) and the ramp xi / L (u1, v1), from
+  // Int xi (x - xi) / R^2 = x ln(r1/r2) - L + y dtheta and Int xi y / R^2 = x dtheta - y ln(r1/r2).
+  const double u0 = lnr, v0 = dth;
+  const double u1 = (l.x * lnr - l.L + l.y * dth) / l.L;
+  const double v1 = (l.x * dth - l.y * lnr) / l.L;
+  va = to_global(f, (u0 - u1) / kTwoPi, (v0 - v1) / kTwoPi);
+  vb = to_global(f, u1 / kTwoPi, v1 / kTwoPi);
+}
+
+void wake_source_velocity(const std::vector<Frame>& wake_panels, const Eigen::Vector2d& p,
+                          const Eigen::Vector2d& t, double log_scale, Eigen::VectorXd& weights) {
+  const int k_count = static_cast<int>(wake_panels.size());
+  weights.setZero(k_count);
+  for (int k = 0; k < k_count; ++k) {
+    const Frame& w = wake_panels[k];
+    const Eigen::Vector2d mid = w.a + 0.5 * w.length * w.t;
+    Frame first = w, second = w;
+    first.length = second.length = 0.5 * w.length;
+    second.a = mid;
+    Eigen::Vector2d a1, m1, m2, b2;
+    velocity_source_linear(first, p, log_scale, a1, m1);
+    velocity_source_linear(second, p, log_scale, m2, b2);
+    weights(k) += t.dot(m1 + m2);
+    // Node values: the mean of the two panels there, or the panel's own strength at a wake end.
+    const double wa = t.dot(a1), wb = t.dot(b2);
+    if (k == 0) {
+      weights(k) += wa;
+    } else {
+      weights(k - 1) += 0.5 * wa;
+      weights(k) += 0.5 * wa;
+    }
+    if (k == k_count - 1) {
+      weights(k) += wb;
+    } else {
+      weights(k) += 0.5 * wb;
+      weights(k + 1) += 0.5 * wb;
+    }
+  }
+}
+
 }  // namespace fulmar::panel

@@ -9,6 +9,7 @@
 // Vortex sheets are clockwise positive: psi = (1/2pi) Int gamma ln r ds. Sources are outflow
 // positive: psi = (1/2pi) Int sigma theta ds, with theta's branch cut chosen per use (see below).
 #include <Eigen/Core>
+#include <vector>
 
 namespace fulmar::panel {
 
@@ -50,5 +51,22 @@ Eigen::Vector2d velocity_vortex_constant(const Frame& f, const Eigen::Vector2d& 
                                          double log_scale);
 Eigen::Vector2d velocity_source_constant(const Frame& f, const Eigen::Vector2d& p,
                                          double log_scale);
+// Velocity weights of a source sheet whose strength varies linearly from sigma_a at a to sigma_b
+// at b: v = va * sigma_a + vb * sigma_b (same finite part as above).
+void velocity_source_linear(const Frame& f, const Eigen::Vector2d& p, double log_scale,
+                            Eigen::Vector2d& va, Eigen::Vector2d& vb);
+
+// The wake's source sheet as it acts on wake points. The wake polyline has panels k = 0..K-1
+// (`wake_panels`, K frames joined end to end) carrying mean strengths sigma_k (the mass-defect
+// difference over the panel length). The strength is taken piecewise linear and continuous:
+// sigma_k at the midpoint of panel k, the mean of the two adjacent panels' sigma at an interior
+// node, the panel's own sigma at the two ends of the wake. A constant strength per panel would
+// make the velocity at a node logarithmically infinite wherever neighbouring strengths differ, so
+// its finite part would leave the node-to-node mode of the mass defect almost without response;
+// the continuous sheet gives every mode its proper (thin-body) response, growing with the wave
+// number. Output: `weights` (K): the velocity along `t` (unit vector) at `p` per unit sigma_k;
+// `log_scale` as above (any value at a node of the wake: the strength is continuous there).
+void wake_source_velocity(const std::vector<Frame>& wake_panels, const Eigen::Vector2d& p,
+                          const Eigen::Vector2d& t, double log_scale, Eigen::VectorXd& weights);
 
 }  // namespace fulmar::panel

@@ -531,6 +531,8 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad,
   m.edge_velocity.head(ns) = q;
   const panel::Frame te_frame =
       sharp_ ? panel::Frame{} : panel::frame(row(nodes_, n), row(nodes_, 0));
+  const std::vector<panel::Frame> wake_frames(frames.begin() + nps, frames.end());
+  VectorXd wake_weights(npw);
   for (int k = 1; k < nw; ++k) {
     const Vector2d p = row(m.wake, k);
     Vector2d t = frames[nps + k - 1].t;
@@ -551,9 +553,11 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad,
       dgam(0) += w;
       dgam(n) -= w;
     }
-    for (int pp = 0; pp < np; ++pp) {
+    for (int pp = 0; pp < nps; ++pp) {
       wake_sigma(k, pp) = t.dot(panel::velocity_source_constant(frames[pp], p, scale));
     }
+    panel::wake_source_velocity(wake_frames, p, t, scale, wake_weights);
+    wake_sigma.row(k).tail(npw) = wake_weights.transpose();
     wake_sigma.row(k) += dgam.transpose() * dgamma.topRows(ns);
     m.edge_velocity(ns + k) =
         t.dot(Vector2d(std::cos(alpha_rad), std::sin(alpha_rad))) + dgam.dot(q);
@@ -613,6 +617,8 @@ Eigen::VectorXd InviscidSolver::edge_velocity_with_sources(double alpha_rad, con
   ue(ns) = 0.5 * (x(0) - x(n));
   const panel::Frame te_frame =
       sharp_ ? panel::Frame{} : panel::frame(row(nodes_, n), row(nodes_, 0));
+  const std::vector<panel::Frame> wake_frames(frames.begin() + n, frames.end());
+  Eigen::VectorXd wake_weights(npw);
   for (int k = 1; k < nw; ++k) {
     const Vector2d p = row(wake, k);
     Vector2d t = frames[n + k - 1].t;
@@ -630,10 +636,11 @@ Eigen::VectorXd InviscidSolver::edge_velocity_with_sources(double alpha_rad, con
       v += cn_ * dq * panel::velocity_source_constant(te_frame, p, scale) -
            cs_ * dq * panel::velocity_vortex_constant(te_frame, p, scale);
     }
-    for (int pp = 0; pp < n + npw; ++pp) {
+    for (int pp = 0; pp < n; ++pp) {
       v += sigma(pp) * panel::velocity_source_constant(frames[pp], p, scale);
     }
-    ue(ns + k) = t.dot(v);
+    panel::wake_source_velocity(wake_frames, p, t, scale, wake_weights);
+    ue(ns + k) = t.dot(v) + wake_weights.dot(sigma.tail(npw));
   }
   return ue;
 }

@@ -91,10 +91,13 @@ struct InviscidResult {
 // and sigma_k = (m_{k+1} - m_k) / L_k on wake panel k (wake nodes k, k+1). Positive sigma blows
 // out. The vortex strengths are re-solved with the sources through the factored system, so the
 // Kutta condition and constant stream function still hold. Wake edge velocity: the free stream plus
-// all vortex and source panels (surface and wake) projected on the wake tangent at the node (mean
-// of the adjacent wake segments); at its own wake panels' ends the ln r singularity of each panel
-// is replaced by its finite part with the length scale sqrt(L_left L_right), which is exact for
-// equal strengths on collinear panels. Wake node 0 lies on the trailing edge, where the velocity
+// all vortex and source panels projected on the wake tangent at the node (mean of the adjacent
+// wake segments). Seen from a wake node, the wake's sources are not constant per panel but the
+// continuous piecewise-linear sheet of panel::wake_source_velocity (same sigma_k at each panel
+// midpoint): constant panels would give the node-to-node mode of the wake mass defect almost no
+// response, and the coupled solution a free sawtooth in the near wake. The surface stream
+// function sees the wake panels' constant sources (far from them, the two differ by a
+// redistribution within a panel). Wake node 0 lies on the trailing edge, where the velocity
 // is not defined: its edge velocity is the mean trailing-edge speed (q_0 - q_N) / 2, and its row
 // of D is the same mean of rows 0 and N.
 struct CouplingModel {
