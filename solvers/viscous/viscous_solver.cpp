@@ -616,25 +616,27 @@ class CoupledSystem {
             const bool separated = (station(i).dstar - lay_.gap(i)) / th_(i) > kSeparatedLaminarH;
             // The transition moved one interval upstream, onto this station (the e^N point
             // crossed it): the turbulent layer just behind the transition point continues the
-            // laminar state (theta and H are continuous through transition), so the state stays
-            // and only c takes its meaning as the initial shear stress. Taking H from downstream
-            // instead moves the mass defect and kicks the edge velocity; kept, a warm-started
-            // point converges in fewer iterations and more low-Re points converge (NACA 4415
-            // Re 2e5, -4..14 deg: 36 of 37 against 14). A move the other way (turbulent to
-            // laminar) keeps the laminar reset below: a laminar station with a turbulent H ~ 1.5
-            // led NACA 4412 Re 1e6 near zero lift onto a second, lower-lift solution.
+            // laminar state (theta and H are continuous through transition), so the state stays.
+            // Taking H from downstream instead moves the mass defect and kicks the edge
+            // velocity; kept, a warm-started point converges in fewer iterations and more
+            // low-Re points converge (NACA 4415 Re 2e5, -4..14 deg: 36 of 37 against 14). Its c
+            // is that of the old first turbulent station, which lay as far behind the
+            // transition point as this one does now (the initial shear stress of its own state
+            // instead leaves a lag residual of order 1: 738 rather than 740 of the 20 test
+            // polars' points converged, 390 of 404 rather than 402 of 411 in bench_polar's
+            // robustness table). A move the other way (turbulent to laminar) keeps the laminar
+            // reset below: a laminar station with a turbulent H ~ 1.5 led NACA 4412 Re 1e6 near
+            // zero lift onto a second, lower-lift solution.
             const bool one_upstream = p == q - 1 && first == q - 1;
-            if (one_upstream || d < 0) {
-              // The state stays. c: that of the old first turbulent station, which lay as far
-              // behind the transition point as this one does now (the initial shear stress of
-              // its own state instead, a lag residual of order 1 there, converged 738 rather
-              // than 740 of the 20 test polars' 740 points and 390 rather than 402 of
-              // bench_polar's robustness table), or with no turbulent station downstream the
-              // initial shear stress of its own state.
+            if (one_upstream && d >= 0) {
+              c_(i) = c_(d);
+            } else if (d < 0) {
+              // No turbulent station downstream: the state stays, c is the initial shear
+              // stress of the station's own state.
               const StationState s2 = station(i);
               const Closure<double> k =
                   close_station(LayerKind::kTurbulent, 0.0, s2.theta, s2.dstar, s2.ue, flow_);
-              c_(i) = (one_upstream && d >= 0) ? c_(d) : transition_ctau_root(k);
+              c_(i) = transition_ctau_root(k);
             } else if (separated) {
               // Transition in a separated laminar layer: the state is continuous through it
               // (only c changes meaning); the turbulent equations reattach the layer from there.
