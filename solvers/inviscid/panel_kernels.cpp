@@ -181,30 +181,26 @@ void wake_source_velocity(const std::vector<Frame>& wake_panels, const Eigen::Ve
                           const Eigen::Vector2d& t, double log_scale, Eigen::VectorXd& weights) {
   const int k_count = static_cast<int>(wake_panels.size());
   weights.setZero(k_count);
+  // Node j's strength: the mean of panels j - 1 and j, or the one panel at a wake end.
+  auto add_node = [&](int j, double w) {
+    if (j == 0 || j == k_count) {
+      weights(std::min(j, k_count - 1)) += w;
+    } else {
+      weights(j - 1) += 0.5 * w;
+      weights(j) += 0.5 * w;
+    }
+  };
   for (int k = 0; k < k_count; ++k) {
     const Frame& w = wake_panels[k];
-    const Eigen::Vector2d mid = w.a + 0.5 * w.length * w.t;
     Frame first = w, second = w;
     first.length = second.length = 0.5 * w.length;
-    second.a = mid;
+    second.a = w.a + 0.5 * w.length * w.t;
     Eigen::Vector2d a1, m1, m2, b2;
     velocity_source_linear(first, p, log_scale, a1, m1);
     velocity_source_linear(second, p, log_scale, m2, b2);
     weights(k) += t.dot(m1 + m2);
-    // Node values: the mean of the two panels there, or the panel's own strength at a wake end.
-    const double wa = t.dot(a1), wb = t.dot(b2);
-    if (k == 0) {
-      weights(k) += wa;
-    } else {
-      weights(k - 1) += 0.5 * wa;
-      weights(k) += 0.5 * wa;
-    }
-    if (k == k_count - 1) {
-      weights(k) += wb;
-    } else {
-      weights(k) += 0.5 * wb;
-      weights(k + 1) += 0.5 * wb;
-    }
+    add_node(k, t.dot(a1));
+    add_node(k + 1, t.dot(b2));
   }
 }
 

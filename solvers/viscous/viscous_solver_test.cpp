@@ -314,6 +314,7 @@ TEST(ViscousSmoothness, DragIsSmoothInAShapeCoefficient) {
 TEST(ViscousSmoothness, SameAngleSameDragMarchingUpOrDown) {
   const ViscousSolver solver(naca_nodes("4415", 160), options_at(6.0e6));
   std::vector<ViscousResult> up;
+  up.reserve(21);
   up.push_back(solver.solve_alpha(0.0));
   ASSERT_TRUE(up.back().converged) << up.back().reason;
   for (int k = 1; k <= 20; ++k) {
