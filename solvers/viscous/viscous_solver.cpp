@@ -289,6 +289,13 @@ class CoupledSystem {
     ue_ += lay_.ue_inviscid;
   }
 
+  // A laminar layer within two nodes of the stagnation point is close to the stagnation
+  // similarity state, H = 2.22 for Hiemenz flow (Falkner-Skan m = 1; Schlichting, Boundary-Layer
+  // Theory, table of the Falkner-Skan solutions, from memory); H outside (1.8, 4) there is not a
+  // state of it (1.8 is beyond the most accelerated similar flows, 4 is laminar separation).
+  static constexpr double kStagnationH = 2.2;
+  static constexpr double kNearStagnationHMin = 1.8, kNearStagnationHMax = 4.0;
+
   // Moves the stagnation node when a first station's speed has turned; returns true if moved.
   bool relocate_stagnation() {
     const int k = lay_.stag;
@@ -301,11 +308,19 @@ class CoupledSystem {
     const int moved = nk < k ? k : k + 1;  // the node that changes side
     // The nodes around the stagnation point keep their delta* (the speed that converts m into
     // delta* changes with their role); the node that changes sides sat next to the stagnation
-    // point: a laminar layer near the stagnation similarity state (H about 2.2).
+    // point: a laminar layer near the stagnation similarity state (H about 2.2). So does a laminar
+    // node whose delta* has lost its meaning: m was set for a speed that has since changed by a
+    // large fraction (right after a cold start, when the displacement effect moves the
+    // stagnation point by a panel, H = m / ue / theta came out at 0.97 and 9.2 on a sharp nose).
     const int lo = std::max(0, std::min(k, nk) - 1),
               hi = std::min(lay_.n_surface - 1, std::max(k, nk) + 2);
     std::vector<double> dstar;
-    for (int i = lo; i <= hi; ++i) dstar.push_back(i == moved ? 2.2 * th_(i) : station(i).dstar);
+    for (int i = lo; i <= hi; ++i) {
+      const double d = station(i).dstar, h = d / th_(i);
+      const bool lost = kinds_[i] == LayerKind::kLaminar &&
+                        !(h > kNearStagnationHMin && h < kNearStagnationHMax);
+      dstar.push_back(i == moved || lost ? kStagnationH * th_(i) : d);
+    }
     set_stagnation(nk);
     for (int pass = 0; pass < 2; ++pass) {
       update_edge_velocity();
