@@ -317,8 +317,8 @@ class CoupledSystem {
     std::vector<double> dstar;
     for (int i = lo; i <= hi; ++i) {
       const double d = station(i).dstar, h = d / th_(i);
-      const bool lost = kinds_[i] == LayerKind::kLaminar &&
-                        !(h > kNearStagnationHMin && h < kNearStagnationHMax);
+      const bool lost =
+          kinds_[i] == LayerKind::kLaminar && !(h > kNearStagnationHMin && h < kNearStagnationHMax);
       dstar.push_back(i == moved || lost ? kStagnationH * th_(i) : d);
     }
     set_stagnation(nk);
