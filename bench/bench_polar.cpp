@@ -4,17 +4,21 @@
 //   2. a 41-point polar (sweep_polar, -10..10 deg step 0.5) and the summary alone;
 //   3. robustness: sweep_polar over -4..20 deg in 1-deg steps for six sections at three Reynolds
 //      numbers; converged fraction from -4 deg up to 2 deg beyond the cl peak (or 20 deg), and
-//      every failure in that range (alpha, reason).
+//      every failure in that range (alpha, reason);
+//   4. the known weak spot: the sharp-nosed optimizer candidate of tests/data (leading-edge
+//      bubble on two panels at 160 panels, DEVELOPERS.md), 4..20 deg at 160, 240 and 320 panels.
 #include <time.h>
 
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
+#include <fstream>
 #include <functional>
 #include <limits>
 #include <string>
 #include <vector>
 
+#include "geometry/cst.h"
 #include "geometry/naca.h"
 #include "geometry/panelling.h"
 #include "solvers/viscous/polar.h"
@@ -138,6 +142,33 @@ void robustness() {
       total_ok, total, 100.0 * total_ok / std::max(1, total));
 }
 
+void sharp_nose() {
+  const std::string path =
+      std::string(FULMAR_SOURCE_DIR) + "/tests/data/sharp_nose_candidate_cst.json";
+  std::ifstream in(path);
+  const Section section = cst_section(cst_from_json(nlohmann::json::parse(in), path), 161, "sharp");
+  std::printf("4. weak spot: sharp-nosed candidate (%s), Re 2.87e6, M 0.09, 4..20 deg step 1\n",
+              "tests/data/sharp_nose_candidate_cst.json");
+  for (int panels : {160, 240, 320}) {
+    PanellingOptions po;
+    po.panels = panels;
+    ViscousOptions vo;
+    vo.reynolds = 2.87e6;
+    vo.mach = 0.09;
+    const ViscousSolver solver(panel_nodes(section, po), vo);
+    PolarOptions o;
+    o.alpha_from = 4;
+    o.alpha_to = 20;
+    o.alpha_step = 1;
+    o.refine_cl_max = false;
+    const Polar p = sweep_polar(solver, o);
+    int ok = 0;
+    for (const ViscousResult& r : p.points) ok += r.converged;
+    std::printf("   %3d panels: %2d/%zu converged, cl_max %s\n", panels, ok, p.points.size(),
+                p.summary.has_cl_max ? std::to_string(p.summary.cl_max).c_str() : "-");
+  }
+}
+
 }  // namespace
 
 int main() {
@@ -145,5 +176,6 @@ int main() {
   point_times();
   polar_times();
   robustness();
+  sharp_nose();
   return 0;
 }
