@@ -12,7 +12,6 @@
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
-#include <fstream>
 #include <functional>
 #include <limits>
 #include <string>
@@ -21,6 +20,7 @@
 #include "geometry/cst.h"
 #include "geometry/naca.h"
 #include "geometry/panelling.h"
+#include "geometry/shape_source.h"
 #include "solvers/viscous/polar.h"
 
 namespace {
@@ -145,8 +145,8 @@ void robustness() {
 void sharp_nose() {
   const std::string path =
       std::string(FULMAR_SOURCE_DIR) + "/tests/data/sharp_nose_candidate_cst.json";
-  std::ifstream in(path);
-  const Section section = cst_section(cst_from_json(nlohmann::json::parse(in), path), 161, "sharp");
+  // 161 points per surface, as the optimizer builds its candidates.
+  const Section section = cst_section(*load_cst_shape(path), 161, "sharp");
   std::printf("4. weak spot: sharp-nosed candidate (%s), Re 2.87e6, M 0.09, 4..20 deg step 1\n",
               "tests/data/sharp_nose_candidate_cst.json");
   for (int panels : {160, 240, 320}) {

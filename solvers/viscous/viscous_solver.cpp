@@ -314,12 +314,12 @@ class CoupledSystem {
     // stagnation point by a panel, H = m / ue / theta came out at 0.97 and 9.2 on a sharp nose).
     const int lo = std::max(0, std::min(k, nk) - 1),
               hi = std::min(lay_.n_surface - 1, std::max(k, nk) + 2);
-    std::vector<double> dstar;
+    std::array<double, 5> dstar{};  // hi - lo + 1 <= 5: the stagnation node moves by one
     for (int i = lo; i <= hi; ++i) {
       const double d = station(i).dstar, h = d / th_(i);
       const bool lost =
           kinds_[i] == LayerKind::kLaminar && !(h > kNearStagnationHMin && h < kNearStagnationHMax);
-      dstar.push_back(i == moved || lost ? kStagnationH * th_(i) : d);
+      dstar[static_cast<std::size_t>(i - lo)] = i == moved || lost ? kStagnationH * th_(i) : d;
     }
     set_stagnation(nk);
     for (int pass = 0; pass < 2; ++pass) {
