@@ -150,6 +150,20 @@ CouplingModel ViscousSolver::model_at(double alpha_deg) const {
 
 namespace {
 
+// The work arrays of a Newton step, kept from one solve to the next in each thread: the
+// largest (3 #stations by #stations + 1, about 0.8 MB at 160 panels) would otherwise be
+// allocated and returned to the system for every solve, and its first touch costs page faults.
+struct NewtonScratch {
+  RowMatrix rhs;          // 3 n by n + 1: [-r, G D], then L^-1 of it
+  Eigen::MatrixXd cap_t;  // n by n: the capacitance matrix I + P W, transposed
+  Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu;
+  Eigen::VectorXd dm, dm_solved, z;
+};
+NewtonScratch& newton_scratch() {
+  thread_local NewtonScratch scratch;
+  return scratch;
+}
+
 // The Newton system and state of one solve.
 class CoupledSystem {
  public:
@@ -794,48 +808,100 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j) order.push_back(lay_.n_surface + j);
   }
 
-  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns). Every
-  // operation runs along whole rows of B (contiguous in row-major storage): the off-diagonal
-  // blocks as row updates, the diagonal block by Gaussian elimination with partial pivoting.
+  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns). Per
+  // station, in marching order: X_s = A^-1 B_s - sum_k (A^-1 M_k) X_k over the off-diagonal
+  // blocks M_k, with A^-1 of the diagonal block from Gaussian elimination with partial
+  // pivoting. One pass over the station's rows (the 3 by 3 products applied column by column)
+  // instead of a pass per row operation: B is 3 #stations by #stations + 1, and this solve is
+  // the largest single cost of a Newton step.
   bool solve_lower(RowMatrix& b) const {
+    const Eigen::Index cols = b.cols();
     for (int s : order_) {
-      auto rows = b.middleRows<3>(3 * s);
       const int count = block_count_[static_cast<std::size_t>(s)];
-      int self = -1;
+      int self = -1, n_off = 0;
+      const double* src[kBlocks] = {nullptr, nullptr, nullptr};
+      Eigen::Matrix3d q[kBlocks];
       for (int k = 0; k < count; ++k) {
         const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
         if (j == s) {
           self = k;
           continue;
         }
-        const Eigen::Matrix3d& m = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
-        const auto src = b.middleRows<3>(3 * j);
-        for (int e = 0; e < 3; ++e)
-          rows.row(e) -= m(e, 0) * src.row(0) + m(e, 1) * src.row(1) + m(e, 2) * src.row(2);
+        src[n_off] = b.data() + 3 * j * cols;
+        q[n_off++] = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
       }
       if (self < 0) return false;
-      Eigen::Matrix3d a = blocks_[static_cast<std::size_t>(kBlocks * s + self)];
-      int p[3] = {0, 1, 2};  // row of a (and of `rows`) that holds pivot k
-      for (int k = 0; k < 3; ++k) {
-        int best = k;
-        for (int i = k + 1; i < 3; ++i)
-          if (std::abs(a(p[i], k)) > std::abs(a(p[best], k))) best = i;
-        std::swap(p[k], p[best]);
-        for (int i = k + 1; i < 3; ++i) {
-          const double f = a(p[i], k) / a(p[k], k);
-          if (f == 0.0) continue;
-          for (int c = k + 1; c < 3; ++c) a(p[i], c) -= f * a(p[k], c);
-          rows.row(p[i]) -= f * rows.row(p[k]);
-        }
-      }
-      for (int k = 2; k >= 0; --k) {
-        block_rhs_.row(k) = rows.row(p[k]);
-        for (int c = k + 1; c < 3; ++c) block_rhs_.row(k) -= a(p[k], c) * block_rhs_.row(c);
-        block_rhs_.row(k) /= a(p[k], k);
-      }
-      rows = block_rhs_;
+      const Eigen::Matrix3d a_inv =
+          block_inverse(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
+      if (!a_inv.allFinite()) return false;
+      for (int k = 0; k < n_off; ++k) q[k] = a_inv * q[k];
+      double* r = b.data() + 3 * s * cols;
+      if (n_off == 0)
+        station_update<0>(r, src, a_inv, q, cols);
+      else if (n_off == 1)
+        station_update<1>(r, src, a_inv, q, cols);
+      else
+        station_update<2>(r, src, a_inv, q, cols);
     }
     return Eigen::Map<const Eigen::VectorXd>(b.data(), b.size()).allFinite();
+  }
+
+  // Rows r (3 by cols, row-major) <- a_inv r - sum over k < K of q[k] src[k] (src[k]: the 3 rows
+  // of another station, which never overlap r).
+  template <int K>
+  static void station_update(double* r, const double* const* src, const Eigen::Matrix3d& a_inv,
+                             const Eigen::Matrix3d* q, Eigen::Index cols) {
+    double* __restrict r0 = r;
+    double* __restrict r1 = r + cols;
+    double* __restrict r2 = r + 2 * cols;
+    const double* __restrict t[K > 0 ? K : 1];
+    double m[K > 0 ? K : 1][9];
+    for (int k = 0; k < K; ++k) {
+      t[k] = src[k];
+      for (int e = 0; e < 9; ++e) m[k][e] = q[k](e / 3, e % 3);
+    }
+    const double a00 = a_inv(0, 0), a01 = a_inv(0, 1), a02 = a_inv(0, 2);
+    const double a10 = a_inv(1, 0), a11 = a_inv(1, 1), a12 = a_inv(1, 2);
+    const double a20 = a_inv(2, 0), a21 = a_inv(2, 1), a22 = a_inv(2, 2);
+    for (Eigen::Index c = 0; c < cols; ++c) {
+      const double x0 = r0[c], x1 = r1[c], x2 = r2[c];
+      double y0 = a00 * x0 + a01 * x1 + a02 * x2;
+      double y1 = a10 * x0 + a11 * x1 + a12 * x2;
+      double y2 = a20 * x0 + a21 * x1 + a22 * x2;
+      for (int k = 0; k < K; ++k) {
+        const double u0 = t[k][c], u1 = t[k][cols + c], u2 = t[k][2 * cols + c];
+        y0 -= m[k][0] * u0 + m[k][1] * u1 + m[k][2] * u2;
+        y1 -= m[k][3] * u0 + m[k][4] * u1 + m[k][5] * u2;
+        y2 -= m[k][6] * u0 + m[k][7] * u1 + m[k][8] * u2;
+      }
+      r0[c] = y0;
+      r1[c] = y1;
+      r2[c] = y2;
+    }
+  }
+
+  // The inverse of a 3 by 3 block by Gaussian elimination with partial pivoting (non-finite
+  // entries when a pivot vanishes).
+  static Eigen::Matrix3d block_inverse(Eigen::Matrix3d a) {
+    Eigen::Matrix3d x = Eigen::Matrix3d::Identity();
+    for (int k = 0; k < 3; ++k) {
+      int best = k;
+      for (int i = k + 1; i < 3; ++i)
+        if (std::abs(a(i, k)) > std::abs(a(best, k))) best = i;
+      a.row(k).swap(a.row(best));
+      x.row(k).swap(x.row(best));
+      for (int i = k + 1; i < 3; ++i) {
+        const double f = a(i, k) / a(k, k);
+        if (f == 0.0) continue;
+        a.row(i) -= f * a.row(k);
+        x.row(i) -= f * x.row(k);
+      }
+    }
+    for (int k = 2; k >= 0; --k) {
+      for (int c = k + 1; c < 3; ++c) x.row(k) -= a(k, c) * x.row(c);
+      x.row(k) /= a(k, k);
+    }
+    return x;
   }
 
   // The Newton step for the current Jacobian and residuals into step_ (var-major: c, theta, m
@@ -863,7 +929,6 @@ class CoupledSystem {
       }
     }
     for (const SpeedTerm& t : g_spill_) rhs_.row(t.row).tail(n) += t.value * lay_.d.row(t.col);
-    block_rhs_.resize(3, n + 1);
     if (!solve_lower(rhs_)) rhs_.setConstant(NAN);
     // The capacitance matrix is stored transposed (its rows are rows of rhs_, contiguous).
     cap_t_.resize(n, n);
@@ -1183,13 +1248,15 @@ class CoupledSystem {
   std::vector<Eigen::Matrix3d> blocks_;           // up to 3 L blocks per station
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                        // marching order of the stations
-  RowMatrix rhs_;                                 // 3 n by n + 1: [-r, G D], then L^-1 of it
-  Eigen::MatrixXd cap_t_;  // n by n: the capacitance matrix I + P W, transposed
-  Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu_;
-  Eigen::VectorXd dm_, dm_solved_, z_;
+  // The Newton step's work arrays (NewtonScratch, one per thread): a copy of the system (the
+  // settled state kept for the outputs) shares them and never takes a step.
+  NewtonScratch& ws_ = newton_scratch();
+  RowMatrix& rhs_ = ws_.rhs;
+  Eigen::MatrixXd& cap_t_ = ws_.cap_t;
+  Eigen::PartialPivLU<Eigen::MatrixXd>& cap_lu_ = ws_.cap_lu;
+  Eigen::VectorXd &dm_ = ws_.dm, &dm_solved_ = ws_.dm_solved, &z_ = ws_.z;
   mutable Eigen::VectorXd due_scratch_, jv_;  // scratch of jacobian_times
-  mutable Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor> block_rhs_;  // solve_lower
-  int dense_solves_ = 0;  // Newton steps that needed the dense fallback
+  int dense_solves_ = 0;                      // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
