@@ -12,6 +12,7 @@
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
+#include <fstream>
 #include <functional>
 #include <limits>
 #include <string>
@@ -43,6 +44,18 @@ double min_cpu(int repeats, const std::function<void()>& f) {
     best = std::min(best, thread_cpu_seconds() - t0);
   }
   return best;
+}
+
+// The CPU model from /proc/cpuinfo ("unknown" elsewhere).
+std::string cpu_model() {
+  std::ifstream in("/proc/cpuinfo");
+  std::string line;
+  while (std::getline(in, line))
+    if (line.rfind("model name", 0) == 0) {
+      const std::size_t colon = line.find(':');
+      if (colon != std::string::npos) return line.substr(colon + 2);
+    }
+  return "unknown";
 }
 
 ViscousSolver make_solver(const std::string& naca, double re) {
@@ -173,6 +186,8 @@ void sharp_nose() {
 
 int main() {
   std::printf("viscous polar benchmark (160 panels, N_crit 9, free transition)\n");
+  std::printf("machine: %s; compiled for -march=%s\n", cpu_model().c_str(),
+              std::string(FULMAR_BUILD_ARCH).empty() ? "(compiler default)" : FULMAR_BUILD_ARCH);
   point_times();
   polar_times();
   robustness();

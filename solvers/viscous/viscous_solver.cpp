@@ -158,6 +158,7 @@ struct NewtonScratch {
   Eigen::MatrixXd cap_t;  // n by n: the capacitance matrix I + P W, transposed
   Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu;
   Eigen::VectorXd dm, dm_solved, z;
+  Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor> block_rhs;  // solve_lower
 };
 NewtonScratch& newton_scratch() {
   thread_local NewtonScratch scratch;
@@ -810,74 +811,34 @@ class CoupledSystem {
 
   // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns). Per
   // station, in marching order: X_s = A^-1 B_s - sum_k (A^-1 M_k) X_k over the off-diagonal
-  // blocks M_k, with A^-1 of the diagonal block from Gaussian elimination with partial
-  // pivoting. One pass over the station's rows (the 3 by 3 products applied column by column)
-  // instead of a pass per row operation: B is 3 #stations by #stations + 1, and this solve is
-  // the largest single cost of a Newton step.
+  // blocks M_k, with A^-1 of the diagonal block from Gaussian elimination with partial pivoting:
+  // a few vectorised passes over the station's rows rather than one per row operation (B is
+  // 3 #stations by #stations + 1, and this solve is the largest single cost of a Newton step).
+  // False when a diagonal block is singular; other non-finite values reach the step, which
+  // solve_newton checks.
   bool solve_lower(RowMatrix& b) const {
     const Eigen::Index cols = b.cols();
+    block_rhs_.resize(3, cols);
     for (int s : order_) {
       const int count = block_count_[static_cast<std::size_t>(s)];
-      int self = -1, n_off = 0;
-      const double* src[kBlocks] = {nullptr, nullptr, nullptr};
-      Eigen::Matrix3d q[kBlocks];
-      for (int k = 0; k < count; ++k) {
-        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        if (j == s) {
-          self = k;
-          continue;
-        }
-        src[n_off] = b.data() + 3 * j * cols;
-        q[n_off++] = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
-      }
+      int self = -1;
+      for (int k = 0; k < count; ++k)
+        if (block_station_[static_cast<std::size_t>(kBlocks * s + k)] == s) self = k;
       if (self < 0) return false;
       const Eigen::Matrix3d a_inv =
           block_inverse(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
       if (!a_inv.allFinite()) return false;
-      for (int k = 0; k < n_off; ++k) q[k] = a_inv * q[k];
-      double* r = b.data() + 3 * s * cols;
-      if (n_off == 0)
-        station_update<0>(r, src, a_inv, q, cols);
-      else if (n_off == 1)
-        station_update<1>(r, src, a_inv, q, cols);
-      else
-        station_update<2>(r, src, a_inv, q, cols);
-    }
-    return Eigen::Map<const Eigen::VectorXd>(b.data(), b.size()).allFinite();
-  }
-
-  // Rows r (3 by cols, row-major) <- a_inv r - sum over k < K of q[k] src[k] (src[k]: the 3 rows
-  // of another station, which never overlap r).
-  template <int K>
-  static void station_update(double* r, const double* const* src, const Eigen::Matrix3d& a_inv,
-                             const Eigen::Matrix3d* q, Eigen::Index cols) {
-    double* __restrict r0 = r;
-    double* __restrict r1 = r + cols;
-    double* __restrict r2 = r + 2 * cols;
-    const double* __restrict t[K > 0 ? K : 1];
-    double m[K > 0 ? K : 1][9];
-    for (int k = 0; k < K; ++k) {
-      t[k] = src[k];
-      for (int e = 0; e < 9; ++e) m[k][e] = q[k](e / 3, e % 3);
-    }
-    const double a00 = a_inv(0, 0), a01 = a_inv(0, 1), a02 = a_inv(0, 2);
-    const double a10 = a_inv(1, 0), a11 = a_inv(1, 1), a12 = a_inv(1, 2);
-    const double a20 = a_inv(2, 0), a21 = a_inv(2, 1), a22 = a_inv(2, 2);
-    for (Eigen::Index c = 0; c < cols; ++c) {
-      const double x0 = r0[c], x1 = r1[c], x2 = r2[c];
-      double y0 = a00 * x0 + a01 * x1 + a02 * x2;
-      double y1 = a10 * x0 + a11 * x1 + a12 * x2;
-      double y2 = a20 * x0 + a21 * x1 + a22 * x2;
-      for (int k = 0; k < K; ++k) {
-        const double u0 = t[k][c], u1 = t[k][cols + c], u2 = t[k][2 * cols + c];
-        y0 -= m[k][0] * u0 + m[k][1] * u1 + m[k][2] * u2;
-        y1 -= m[k][3] * u0 + m[k][4] * u1 + m[k][5] * u2;
-        y2 -= m[k][6] * u0 + m[k][7] * u1 + m[k][8] * u2;
+      auto rows = b.middleRows<3>(3 * s);
+      block_rhs_.noalias() = a_inv * rows;
+      for (int k = 0; k < count; ++k) {
+        if (k == self) continue;
+        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        const Eigen::Matrix3d q = a_inv * blocks_[static_cast<std::size_t>(kBlocks * s + k)];
+        block_rhs_.noalias() -= q * b.middleRows<3>(3 * j);
       }
-      r0[c] = y0;
-      r1[c] = y1;
-      r2[c] = y2;
+      rows = block_rhs_;
     }
+    return true;
   }
 
   // The inverse of a 3 by 3 block by Gaussian elimination with partial pivoting (non-finite
@@ -1255,6 +1216,7 @@ class CoupledSystem {
   Eigen::MatrixXd& cap_t_ = ws_.cap_t;
   Eigen::PartialPivLU<Eigen::MatrixXd>& cap_lu_ = ws_.cap_lu;
   Eigen::VectorXd &dm_ = ws_.dm, &dm_solved_ = ws_.dm_solved, &z_ = ws_.z;
+  Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor>& block_rhs_ = ws_.block_rhs;
   mutable Eigen::VectorXd due_scratch_, jv_;  // scratch of jacobian_times
   int dense_solves_ = 0;                      // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
