@@ -813,7 +813,7 @@ class CoupledSystem {
   // station, in marching order: X_s = A^-1 B_s - sum_k (A^-1 M_k) X_k over the off-diagonal
   // blocks M_k, with A^-1 of the diagonal block from Gaussian elimination with partial pivoting:
   // a few vectorised passes over the station's rows rather than one per row operation (B is
-  // 3 #stations by #stations + 1, and this solve is the largest single cost of a Newton step).
+  // 3 #stations by #stations + 1; after the capacitance LU this is the largest cost of a step).
   // False when a diagonal block is singular; other non-finite values reach the step, which
   // solve_newton checks.
   bool solve_lower(RowMatrix& b) const {
