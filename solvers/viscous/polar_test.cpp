@@ -482,7 +482,8 @@ TEST(SweepPolar, Naca2412MaximumLiftAtSixMillion) {
 // 0.5-deg steps (below stall, which is near 16-19 deg at this Re in the model). Every point of
 // this range is an attached or bubble flow that the integral method is meant to handle, so the
 // sweep must converge nearly everywhere; the allowance of 3 of 37 is the bench's failure rate
-// over its whole set (5 %, bench/bench_polar), rounded up. Measured 36 of 37; 14 of 37 when a
+// over its whole set (5 %, bench/bench_polar), rounded up. Measured 37 of 37 (36 when the
+// allowance was set); 14 of 37 when a
 // transition moving upstream replaced the crossed station's shape factor by the downstream one.
 TEST(SweepPolar, Naca4415AtLowReynoldsNumberConvergesBelowStall) {
   const ViscousSolver solver = section_solver("4415", 2.0e5);
