@@ -1127,8 +1127,8 @@ class CoupledSystem {
     saved_th_ = th_;
     saved_mu_ = mu_;
     apply_step(rlx);
-    // After the step: a turbulent station whose H - 1 fell below kShapeDropFraction of its value
-    // before the step is put back on that level (delta* raised), and with floor_fix every
+    // After the step: a turbulent or wake station whose H - 1 fell below kShapeDropFraction of its
+    // value before the step is put back on that level (delta* raised), and with floor_fix every
     // station below its floor onto the floor.
     bool moved_mass = false;
     for (int i = 0; i < n; ++i) {
@@ -1146,7 +1146,8 @@ class CoupledSystem {
     return rlx;
   }
 
-  // How far a turbulent station's H - 1 may fall in one Newton step (as a fraction of itself).
+  // How far the H - 1 of a turbulent or wake station may fall in one Newton step (as a fraction
+  // of itself).
   // Behind a transition point that has moved upstream, the linearised transition interval can
   // ask a reattaching layer for a shape factor far below any turbulent state (NACA 0012, Re 6e6,
   // 6.5 -> 7 deg: H 2.25 -> 0.82 at the first turbulent station; the step the other limits let
