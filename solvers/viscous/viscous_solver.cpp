@@ -199,6 +199,7 @@ class CoupledSystem {
     mu_.resize(lay_.n);
     ue_.resize(lay_.n);
     cold_ue_ = Eigen::VectorXd::Ones(lay_.n);
+    h_floor_.assign(static_cast<std::size_t>(lay_.n), 0.0);
     h_before_.assign(static_cast<std::size_t>(lay_.n), 0.0);
     kinds_.assign(static_cast<std::size_t>(lay_.n), LayerKind::kLaminar);
   }
@@ -1094,9 +1095,13 @@ class CoupledSystem {
     // The shape-factor floor halves the step at most kFloorHalvings times; stations still below
     // it after the step are then put on it (their delta* raised), so that one station near the
     // floor cannot freeze the whole solution.
-    std::vector<double> h_floor(static_cast<std::size_t>(n), 0.0);
-    for (int i = 0; i < n; ++i)
-      h_floor[i] = 0.5 * (std::min(station(i).dstar / th_(i), 1.05) + 1.0);
+    // Shape factors before the step: the floor (of delta* / theta) and H (of the layer's own
+    // delta*, without the wake gap) for the limit on its fall after the step.
+    for (int i = 0; i < n; ++i) {
+      const double dstar = station(i).dstar;
+      h_floor_[i] = 0.5 * (std::min(dstar / th_(i), 1.05) + 1.0);
+      h_before_[i] = (dstar - lay_.gap(i)) / th_(i);
+    }
     bool floor_fix = false;
     for (int k = 0; k < 20; ++k) {
       bool sign_ok = true, floor_ok = true;
@@ -1110,7 +1115,7 @@ class CoupledSystem {
         }
         const double h =
             ((mu_(i) + rlx * dmu(i)) / u - lay_.gap(i)) / (th_(i) + rlx * step_(n + i));
-        if (h < h_floor[i]) {
+        if (h < h_floor_[i]) {
           floor_ok = false;
           limited_by_ = "shape factor floor at station " + std::to_string(i);
         }
@@ -1122,7 +1127,6 @@ class CoupledSystem {
       }
       rlx *= 0.5;
     }
-    for (int i = 0; i < n; ++i) h_before_[i] = (station(i).dstar - lay_.gap(i)) / th_(i);
     saved_c_ = c_;
     saved_th_ = th_;
     saved_mu_ = mu_;
@@ -1133,7 +1137,7 @@ class CoupledSystem {
     bool moved_mass = false;
     for (int i = 0; i < n; ++i) {
       if (first_station_side(i) >= 0) continue;
-      double lo = floor_fix ? h_floor[i] : 0.0;
+      double lo = floor_fix ? h_floor_[i] : 0.0;
       if (kinds_[i] != LayerKind::kLaminar)
         lo = std::max(lo, 1.0 + kShapeDropFraction * (h_before_[i] - 1.0));
       const double u = dstar_speed(i);
@@ -1248,8 +1252,8 @@ class CoupledSystem {
   bool ue_valid_ = false;
   std::string limited_by_;
   Eigen::VectorXd saved_c_, saved_th_, saved_mu_;
-  std::vector<double> h_before_;  // H of each station before the step (newton_step)
-  Eigen::VectorXd cold_ue_;       // the speeds of the cold-start marches
+  std::vector<double> h_floor_, h_before_;  // per station, before the step (newton_step)
+  Eigen::VectorXd cold_ue_;                 // the speeds of the cold-start marches
   int transition_interval_[2] = {-1, -1};
   int previous_transition_[2] = {-1, -1};  // BL position of the last assignment (-1: none yet)
   bool transition_limited_ = false;
