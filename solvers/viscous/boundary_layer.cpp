@@ -20,18 +20,31 @@ std::array<Dual, 4> inputs(const StationState& s, int offset) {
 
 namespace {
 
-// Residuals of an interval for the given inputs (Dual or not), `x1`, `x2` its arc lengths.
+// Residuals of an interval for the given inputs (Dual or not), `x1`, `x2` its arc lengths. With
+// `s1`, `s2` (the stations whose inputs a and b are), the closures of a same-kind interval are
+// taken per station (station_closure, or `given`); without, from a and b.
 std::array<Dual, 3> residuals_of(const IntervalSpec& spec, const Dual& x1, const Dual& x2,
                                  const std::array<Dual, 4>& a, const std::array<Dual, 4>& b,
-                                 const FlowConditions& flow, double* fraction_out) {
+                                 const FlowConditions& flow, double* fraction_out,
+                                 const StationState* s1 = nullptr,
+                                 const StationState* s2 = nullptr,
+                                 const IntervalClosures& given = {}) {
+  auto same_kind = [&](LayerKind kind, double gap1, double gap2) {
+    if (!s1 || !s2)
+      return interval_residuals(kind, x1, x2, a.data(), b.data(), flow, gap1, gap2);
+    return interval_residuals(
+        kind, x1, x2, a.data(), b.data(),
+        widen(given.first ? *given.first : station_closure(kind, *s1, flow, gap1), 0),
+        widen(given.second ? *given.second : station_closure(kind, *s2, flow, gap2), 4), gap1,
+        gap2);
+  };
   switch (spec.type) {
     case IntervalType::kLaminar:
-      return interval_residuals(LayerKind::kLaminar, x1, x2, a.data(), b.data(), flow);
+      return same_kind(LayerKind::kLaminar, 0.0, 0.0);
     case IntervalType::kTurbulent:
-      return interval_residuals(LayerKind::kTurbulent, x1, x2, a.data(), b.data(), flow);
+      return same_kind(LayerKind::kTurbulent, 0.0, 0.0);
     case IntervalType::kWake:
-      return interval_residuals(LayerKind::kWake, x1, x2, a.data(), b.data(), flow, spec.gap1,
-                                spec.gap2);
+      return same_kind(LayerKind::kWake, spec.gap1, spec.gap2);
     case IntervalType::kSimilarity:
       return similarity_residuals(x2, spec.m_exponent, b.data(), flow);
     case IntervalType::kTransition: {
@@ -52,25 +65,33 @@ std::array<Dual, 3> residuals_of(const IntervalSpec& spec, const Dual& x1, const
 
 }  // namespace
 
+Closure<StationDual> station_closure(LayerKind kind, const StationState& s,
+                                     const FlowConditions& flow, double gap) {
+  return close_station(kind, StationDual::input(s.c, 0), StationDual::input(s.theta, 1),
+                       StationDual::input(s.dstar, 2), StationDual::input(s.ue, 3), flow, gap);
+}
+
 IntervalLinearization linearize_interval(const IntervalSpec& spec, const StationState& s1,
                                          const StationState& s2, const FlowConditions& flow,
-                                         double* fraction_out, Eigen::Vector3d* d_origin) {
+                                         double* fraction_out, Eigen::Vector3d* d_origin,
+                                         const IntervalClosures& given) {
   const std::array<Dual, 4> a = inputs(s1, 0), b = inputs(s2, 4);
   const bool similarity = spec.type == IntervalType::kSimilarity;
-  const std::array<Dual, 3> r =
-      residuals_of(spec, Dual(spec.x1), similarity ? Dual::input(spec.x2, 0) : Dual(spec.x2), a, b,
-                   flow, fraction_out);
+  // The origin shift rides along as one more derivative (the closures do not see x).
+  Dual x1(spec.x1), x2(spec.x2);
+  if (similarity) {
+    x2 = Dual::input(spec.x2, 0);
+  } else if (d_origin) {
+    x1.d[kOriginShift] = 1.0;
+    x2.d[kOriginShift] = 1.0;
+  }
+  const std::array<Dual, 3> r = residuals_of(spec, x1, x2, a, b, flow, fraction_out, &s1, &s2, given);
   IntervalLinearization lin;
   for (int i = 0; i < 3; ++i) {
     lin.r(i) = r[i].v;
-    for (int k = 0; k < kDualSize; ++k) lin.j(i, k) = r[i].d[k];
-  }
-  if (d_origin) {
-    const std::array<Dual, 4> ac{Dual(s1.c), Dual(s1.theta), Dual(s1.dstar), Dual(s1.ue)};
-    const std::array<Dual, 4> bc{Dual(s2.c), Dual(s2.theta), Dual(s2.dstar), Dual(s2.ue)};
-    const std::array<Dual, 3> ro =
-        residuals_of(spec, Dual::input(spec.x1, 0), Dual::input(spec.x2, 0), ac, bc, flow, nullptr);
-    for (int i = 0; i < 3; ++i) (*d_origin)(i) = ro[i].d[0];
+    for (int k = 0; k < 8; ++k) lin.j(i, k) = r[i].d[static_cast<std::size_t>(k)];
+    if (d_origin)
+      (*d_origin)(i) = r[i].d[static_cast<std::size_t>(similarity ? 0 : kOriginShift)];
   }
   return lin;
 }

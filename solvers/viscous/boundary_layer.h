@@ -91,6 +91,16 @@ Closure<T> close_station(LayerKind kind, const T& c, const T& theta, const T& ds
   return k;
 }
 
+// The closures of one station with derivatives with respect to its own (c, theta, delta*, ue),
+// placed at positions offset .. offset + 3 of an interval's Dual (0: station 1, 4: station 2).
+// The same numbers as close_station on an interval's Dual inputs, at less than half the cost
+// (the other station's derivatives, all zero, are not carried through the closures).
+inline Closure<Dual> widen(const Closure<StationDual>& k, int offset) {
+  auto w = [offset](const StationDual& x) { return widen<kDualSize>(x, offset); };
+  return {w(k.me2), w(k.h),           w(k.hk),    w(k.hs), w(k.hss),         w(k.re_theta),
+          w(k.cf),  w(k.dissipation), w(k.delta), w(k.us), w(k.ctau_eq_root)};
+}
+
 // Sqrt(Ctau) at the start of turbulent flow, a fraction of the equilibrium value that rises with
 // H_k (transition of a separated shear layer is quicker): 1.8 exp(-3.3/(H_k - 1)) Ctau_EQ, a form
 // from Drela's later papers (from memory); a modelling choice.
@@ -107,10 +117,21 @@ inline constexpr double kUpwindSharpness = 8.0;
 // Order: (amplification or lag, momentum, kinetic energy). `gap1`, `gap2`: see close_station.
 template <class T>
 std::array<T, 3> interval_residuals(LayerKind kind, const T& x1, const T& x2, const T* s1,
+                                    const T* s2, const Closure<T>& a, const Closure<T>& b,
+                                    double gap1 = 0.0, double gap2 = 0.0);
+template <class T>
+std::array<T, 3> interval_residuals(LayerKind kind, const T& x1, const T& x2, const T* s1,
                                     const T* s2, const FlowConditions& flow, double gap1 = 0.0,
                                     double gap2 = 0.0) {
-  const Closure<T> a = close_station(kind, s1[0], s1[1], s1[2], s1[3], flow, gap1);
-  const Closure<T> b = close_station(kind, s2[0], s2[1], s2[2], s2[3], flow, gap2);
+  return interval_residuals(
+      kind, x1, x2, s1, s2, close_station(kind, s1[0], s1[1], s1[2], s1[3], flow, gap1),
+      close_station(kind, s2[0], s2[1], s2[2], s2[3], flow, gap2), gap1, gap2);
+}
+// The same with the closures `a`, `b` of the two stations given (close_station of kind `kind`).
+template <class T>
+std::array<T, 3> interval_residuals(LayerKind kind, const T& x1, const T& x2, const T* s1,
+                                    const T* s2, const Closure<T>& a, const Closure<T>& b,
+                                    double gap1, double gap2) {
   const T dlnu = log(s2[3] / s1[3]);
   // Averaging weight of station 2: 1/2 (trapezoidal, second order) where H_k varies little, up
   // to 1 (implicit Euler) where it changes strongly across the interval, as behind transition,
@@ -227,10 +248,24 @@ struct IntervalSpec {
 // whichever is first). `d_origin`, when given, receives the derivatives of the residuals with
 // respect to a shift of the arc-length origin (x1 and x2 moving together), as when the stagnation
 // point moves.
+//
+// `given`: the closures of the two stations of a laminar, turbulent or wake interval, when the
+// caller has them from the neighbouring interval (station_closure of the interval's kind and the
+// station's gap); those not given are computed. Other interval types ignore them.
+struct IntervalClosures {
+  const Closure<StationDual>* first = nullptr;
+  const Closure<StationDual>* second = nullptr;
+};
 IntervalLinearization linearize_interval(const IntervalSpec& spec, const StationState& s1,
                                          const StationState& s2, const FlowConditions& flow,
                                          double* fraction_out = nullptr,
-                                         Eigen::Vector3d* d_origin = nullptr);
+                                         Eigen::Vector3d* d_origin = nullptr,
+                                         const IntervalClosures& given = {});
+
+// The closures of kind `kind` at station s, with derivatives with respect to its (c, theta,
+// delta*, ue); `gap` as in close_station.
+Closure<StationDual> station_closure(LayerKind kind, const StationState& s,
+                                     const FlowConditions& flow, double gap = 0.0);
 
 // ---- Direct march for a prescribed edge velocity
 // --------------------------------------------------

@@ -49,6 +49,25 @@ void expect_exact_jacobian(const IntervalSpec& spec, const StationState& a, cons
     for (int i = 0; i < 3; ++i)
       EXPECT_NEAR(d_origin(i), fd(i), 1e-5 * std::max(1.0, std::abs(fd(i)))) << "origin eq " << i;
   }
+  // Closures handed in by the caller (from the neighbouring interval) give the same
+  // linearization as those computed inside (up to rounding: the same arithmetic, perhaps
+  // contracted differently).
+  if (spec.type == IntervalType::kLaminar || spec.type == IntervalType::kTurbulent ||
+      spec.type == IntervalType::kWake) {
+    const LayerKind kind = spec.type == IntervalType::kLaminar     ? LayerKind::kLaminar
+                           : spec.type == IntervalType::kTurbulent ? LayerKind::kTurbulent
+                                                                   : LayerKind::kWake;
+    const Closure<StationDual> ka = station_closure(kind, a, flow, spec.gap1);
+    const Closure<StationDual> kb = station_closure(kind, b, flow, spec.gap2);
+    const IntervalLinearization given =
+        linearize_interval(spec, a, b, flow, nullptr, nullptr, {&ka, &kb});
+    for (int i = 0; i < 3; ++i) {
+      EXPECT_NEAR(given.r(i), lin.r(i), 1e-14 * std::max(1.0, std::abs(lin.r(i))));
+      for (int k = 0; k < 8; ++k)
+        EXPECT_NEAR(given.j(i, k), lin.j(i, k), 1e-14 * std::max(1.0, std::abs(lin.j(i, k))))
+            << "given closures, eq " << i << " var " << k;
+    }
+  }
   for (int k = similarity ? 4 : 0; k < 8; ++k) {
     const bool second = k >= 4;
     const double base = component(second ? b : a, k % 4);

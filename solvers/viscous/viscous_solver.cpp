@@ -993,6 +993,8 @@ class CoupledSystem {
     std::fill(g_count_.begin(), g_count_.end(), 0);
     g_spill_.clear();
     std::fill(block_count_.begin(), block_count_.end(), 0);
+    closure_kind_.assign(static_cast<std::size_t>(lay_.n), -1);
+    closure_.resize(static_cast<std::size_t>(lay_.n));
     res_.setZero();
     const int n = lay_.n;
     for (int side = 0; side < 2; ++side) {
@@ -1032,8 +1034,13 @@ class CoupledSystem {
         // speeds at the two nodes around it.
         Eigen::Vector3d d_origin = Eigen::Vector3d::Zero();
         const bool first = true;
-        const IntervalLinearization lin = linearize_interval(spec, station(i1), station(i2), flow_,
-                                                             &w, first ? &d_origin : nullptr);
+        IntervalClosures given;
+        if (spec.type != IntervalType::kTransition) {
+          const LayerKind kind = kinds_[i2];
+          given = {closure_of(i1, kind, 0.0), closure_of(i2, kind, 0.0)};
+        }
+        const IntervalLinearization lin = linearize_interval(
+            spec, station(i1), station(i2), flow_, &w, first ? &d_origin : nullptr, given);
         if (spec.type == IntervalType::kTransition) transition_weight_[side] = w;
         double d_uk = 0.0, d_uk1 = 0.0;
         if (first) first_xi(side, &d_uk, &d_uk1);
@@ -1089,7 +1096,10 @@ class CoupledSystem {
       spec.x2 = lay_.s(i2);
       spec.gap1 = lay_.gap(i1);
       spec.gap2 = lay_.gap(i2);
-      const IntervalLinearization lin = linearize_interval(spec, station(i1), station(i2), flow_);
+      const IntervalLinearization lin =
+          linearize_interval(spec, station(i1), station(i2), flow_, nullptr, nullptr,
+                             {closure_of(i1, LayerKind::kWake, spec.gap1),
+                              closure_of(i2, LayerKind::kWake, spec.gap2)});
       for (int e = 0; e < 3; ++e) {
         const int r = 3 * i2 + e;
         res_(r) = lin.r(e);
@@ -1099,6 +1109,18 @@ class CoupledSystem {
     }
     (void)n;
     return res_.allFinite() ? res_.cwiseAbs().maxCoeff() : INFINITY;
+  }
+
+  // The closures of station i as a layer of kind `kind` (gap: its wake base thickness) in this
+  // assembly: each station is the end of one interval and the start of the next, and closes
+  // once for both.
+  const Closure<StationDual>* closure_of(int i, LayerKind kind, double gap) {
+    const std::size_t k = static_cast<std::size_t>(i);
+    if (closure_kind_[k] != static_cast<int>(kind)) {
+      closure_[k] = station_closure(kind, station(i), flow_, gap);
+      closure_kind_[k] = static_cast<int>(kind);
+    }
+    return &closure_[k];
   }
 
   // One limited Newton step; returns the relaxation factor used (0 if the solve failed).
@@ -1269,6 +1291,8 @@ class CoupledSystem {
   std::vector<Eigen::Matrix3d> blocks_;           // up to 3 L blocks per station
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                        // marching order of the stations
+  std::vector<Closure<StationDual>> closure_;     // per station, this assembly's (closure_of)
+  std::vector<int> closure_kind_;                 // the LayerKind of closure_, -1: none yet
   // The Newton step's work arrays (NewtonScratch, one per thread): a copy of the system (the
   // settled state kept for the outputs) shares them and never takes a step.
   NewtonScratch& ws_ = newton_scratch();
