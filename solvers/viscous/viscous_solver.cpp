@@ -44,6 +44,7 @@ double wake_gap(double h, double distance) {
 }
 
 using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
+using BlockRows = Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor>;
 
 // Everything about one solve that depends on the angle and the stagnation node.
 struct Layout {
@@ -154,7 +155,8 @@ namespace {
 // largest (3 #stations by #stations + 1, about 0.8 MB at 160 panels) would otherwise be
 // allocated and returned to the system for every solve, and its first touch costs page faults.
 struct NewtonScratch {
-  RowMatrix rhs;          // 3 n by n + 1: [-r, G D], then L^-1 of it
+  // 3 by n + 1 each: a station's rows of [-r, G D], then of L^-1 of it (solve_newton)
+  std::vector<BlockRows> w_rows;
   Eigen::MatrixXd cap_t;  // n by n: the capacitance matrix I + P W, transposed
   Eigen::MatrixXf cap_f;  // cap_t in single precision
   Eigen::PartialPivLU<Eigen::MatrixXf> cap_luf;
@@ -162,7 +164,7 @@ struct NewtonScratch {
   Eigen::VectorXd cap_r;                        // n: residual of the refinement
   Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu;  // when single precision is not enough
   Eigen::VectorXd dm, dm_solved, z;
-  Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor> block_rhs;  // solve_lower
+  BlockRows block_rhs;  // 3 by n + 1 (solve_newton)
 };
 NewtonScratch& newton_scratch() {
   thread_local NewtonScratch scratch;
@@ -815,38 +817,6 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j) order.push_back(lay_.n_surface + j);
   }
 
-  // Solves L X = B in place (B: 3 #stations rows in station-major order, any columns). Per
-  // station, in marching order: X_s = A^-1 B_s - sum_k (A^-1 M_k) X_k over the off-diagonal
-  // blocks M_k, with A^-1 of the diagonal block from Gaussian elimination with partial pivoting:
-  // a few vectorised passes over the station's rows rather than one per row operation (B is
-  // 3 #stations by #stations + 1; after the capacitance LU this is the largest cost of a step).
-  // False when a diagonal block is singular; other non-finite values reach the step, which
-  // solve_newton checks.
-  bool solve_lower(RowMatrix& b) const {
-    const Eigen::Index cols = b.cols();
-    block_rhs_.resize(3, cols);
-    for (int s : order_) {
-      const int count = block_count_[static_cast<std::size_t>(s)];
-      int self = -1;
-      for (int k = 0; k < count; ++k)
-        if (block_station_[static_cast<std::size_t>(kBlocks * s + k)] == s) self = k;
-      if (self < 0) return false;
-      const Eigen::Matrix3d a_inv =
-          block_inverse(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
-      if (!a_inv.allFinite()) return false;
-      auto rows = b.middleRows<3>(3 * s);
-      block_rhs_.noalias() = a_inv * rows;
-      for (int k = 0; k < count; ++k) {
-        if (k == self) continue;
-        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        const Eigen::Matrix3d q = a_inv * blocks_[static_cast<std::size_t>(kBlocks * s + k)];
-        block_rhs_.noalias() -= q * b.middleRows<3>(3 * j);
-      }
-      rows = block_rhs_;
-    }
-    return true;
-  }
-
   // The inverse of a 3 by 3 block by Gaussian elimination with partial pivoting (non-finite
   // entries when a pivot vanishes).
   static Eigen::Matrix3d block_inverse(Eigen::Matrix3d a) {
@@ -874,45 +844,142 @@ class CoupledSystem {
   // The Newton step for the current Jacobian and residuals into step_ (var-major: c, theta, m
   // blocks of #stations each); false when the system is singular.
   //
-  // With W = L^-1 G D (3 #stations by #stations) and z0 = -L^-1 r, the step is dx = z0 - W dm,
-  // where the mass-defect part dm solves (I + P W) dm = P z0. G is sparse, so G D costs
-  // O(n^2) (a few rows of D per equation) and the block solve through L is O(n^2); only the LU
-  // of the #stations-square capacitance matrix is O(n^3).
+  // With W = L^-1 G D (3 #stations by #stations) and z0 = -L^-1 r, the mass-defect part dm of
+  // the step solves (I + P W) dm = P z0, and then L dx = -r - G D dm gives the whole step. G is
+  // sparse, so G D costs O(n^2) (a few rows of D per equation) and the block solve through L is
+  // O(n^2); only the LU of the #stations-square capacitance matrix is O(n^3). W is formed station
+  // by station in marching order and only its m rows are kept (in the capacitance matrix): the
+  // rows of a station are needed only until the stations downstream that see it are done, so
+  // the work stays in a few small buffers instead of a 3 #stations by #stations + 1 matrix
+  // streamed through memory three times.
   bool solve_newton() {
     const int n = lay_.n;
     march_order(order_);
-    rhs_.resize(3 * n, n + 1);
-    rhs_.col(0) = -res_;
-    for (int r = 0; r < 3 * n; ++r) {
-      const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
-      auto w = rhs_.row(r).tail(n);
-      const int count = g_count_[static_cast<std::size_t>(r)];
-      if (count == 0) w.setZero();
-      for (int k = 0; k < count; ++k) {
-        if (k == 0)
-          w = g_val_[base] * lay_.d.row(g_col_[base]);
-        else
-          w += g_val_[base + k] * lay_.d.row(g_col_[base + k]);
-      }
-    }
-    for (const SpeedTerm& t : g_spill_) rhs_.row(t.row).tail(n) += t.value * lay_.d.row(t.col);
-    if (!solve_lower(rhs_)) rhs_.setConstant(NAN);
-    // The capacitance matrix is stored transposed (its rows are rows of rhs_, contiguous).
+    step_.resize(3 * n);
     cap_t_.resize(n, n);
     dm_.resize(n);
-    for (int i = 0; i < n; ++i) {
-      cap_t_.col(i) = rhs_.row(3 * i + 2).tail(n).transpose();
-      dm_(i) = rhs_(3 * i + 2, 0);
+    a_inv_.resize(static_cast<std::size_t>(n));
+    bool singular = false;
+    // Where each station's rows are last needed (position in order_; -1: by none).
+    last_use_.assign(static_cast<std::size_t>(n), -1);
+    for (int pos = 0; pos < n; ++pos) {
+      const int s = order_[static_cast<std::size_t>(pos)];
+      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
+        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        if (j != s) last_use_[static_cast<std::size_t>(j)] = pos;
+      }
     }
-    cap_t_.diagonal().array() += 1.0;
-    solve_capacitance();
-    z_ = rhs_.col(0);
-    z_.noalias() -= rhs_.rightCols(n) * dm_solved_;
-    step_.resize(3 * n);
-    for (int i = 0; i < n; ++i) {
-      step_(i) = z_(3 * i);
-      step_(n + i) = z_(3 * i + 1);
-      step_(2 * n + i) = z_(3 * i + 2);
+    slot_of_.assign(static_cast<std::size_t>(n), -1);
+    free_slots_.clear();
+    int slots_used = 0;
+    for (int pos = 0; pos < n && !singular; ++pos) {
+      const int s = order_[static_cast<std::size_t>(pos)];
+      int slot;
+      if (!free_slots_.empty()) {
+        slot = free_slots_.back();
+        free_slots_.pop_back();
+      } else {
+        slot = slots_used++;
+        if (static_cast<int>(ws_.w_rows.size()) < slots_used) ws_.w_rows.emplace_back();
+        ws_.w_rows[static_cast<std::size_t>(slot)].resize(3, n + 1);
+      }
+      slot_of_[static_cast<std::size_t>(s)] = slot;
+      BlockRows& x = ws_.w_rows[static_cast<std::size_t>(slot)];
+      // The station's rows of [-r, G D] into b.
+      BlockRows& b = block_rhs_;
+      b.resize(3, n + 1);
+      for (int e = 0; e < 3; ++e) {
+        const int r = 3 * s + e;
+        b(e, 0) = -res_(r);
+        const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
+        auto w = b.row(e).tail(n);
+        const double* g = &g_val_[base];
+        auto d_row = [&](int k) { return lay_.d.row(g_col_[base + static_cast<std::size_t>(k)]); };
+        // One pass over the row whatever the number of terms (kSpeedTerms).
+        static_assert(kSpeedTerms == 4);
+        switch (g_count_[static_cast<std::size_t>(r)]) {
+          case 0:
+            w.setZero();
+            break;
+          case 1:
+            w = g[0] * d_row(0);
+            break;
+          case 2:
+            w = g[0] * d_row(0) + g[1] * d_row(1);
+            break;
+          case 3:
+            w = g[0] * d_row(0) + g[1] * d_row(1) + g[2] * d_row(2);
+            break;
+          default:
+            w = g[0] * d_row(0) + g[1] * d_row(1) + g[2] * d_row(2) + g[3] * d_row(3);
+        }
+      }
+      for (const SpeedTerm& t : g_spill_)
+        if (t.row / 3 == s) b.row(t.row % 3).tail(n) += t.value * lay_.d.row(t.col);
+      // X_s = A^-1 (B_s - sum_k M_k X_k) over the off-diagonal blocks M_k.
+      const int count = block_count_[static_cast<std::size_t>(s)];
+      int self = -1;
+      for (int k = 0; k < count; ++k)
+        if (block_station_[static_cast<std::size_t>(kBlocks * s + k)] == s) self = k;
+      if (self < 0) {
+        singular = true;
+        break;
+      }
+      Eigen::Matrix3d& a_inv = a_inv_[static_cast<std::size_t>(s)];
+      a_inv = block_inverse(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
+      if (!a_inv.allFinite()) {
+        singular = true;
+        break;
+      }
+      for (int k = 0; k < count; ++k) {
+        if (k == self) continue;
+        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        b.noalias() -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] *
+                       ws_.w_rows[static_cast<std::size_t>(slot_of_[j])];
+      }
+      x.noalias() = a_inv * b;
+      // The capacitance matrix is stored transposed (its columns are these rows, contiguous).
+      cap_t_.col(s) = x.row(2).tail(n).transpose();
+      dm_(s) = x(2, 0);
+      // Rows no station downstream needs any more free their buffers.
+      for (int k = 0; k < count; ++k) {
+        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        if (j != s && last_use_[static_cast<std::size_t>(j)] == pos &&
+            slot_of_[static_cast<std::size_t>(j)] >= 0) {
+          free_slots_.push_back(slot_of_[static_cast<std::size_t>(j)]);
+          slot_of_[static_cast<std::size_t>(j)] = -1;
+        }
+      }
+      if (last_use_[static_cast<std::size_t>(s)] < 0) {
+        free_slots_.push_back(slot);
+        slot_of_[static_cast<std::size_t>(s)] = -1;
+      }
+    }
+    if (singular) {
+      step_.setConstant(NAN);
+    } else {
+      cap_t_.diagonal().array() += 1.0;
+      solve_capacitance();
+      // L dx = -r - G D dm, one column through the blocks.
+      due_scratch_.noalias() = lay_.d * dm_solved_;
+      z_ = -res_;
+      for_each_speed_term(
+          [&](int r, int col, double value) { z_(r) -= value * due_scratch_(col); });
+      for (int s : order_) {
+        const int count = block_count_[static_cast<std::size_t>(s)];
+        Eigen::Vector3d v = z_.segment<3>(3 * s);
+        for (int k = 0; k < count; ++k) {
+          const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+          if (j != s)
+            v -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] * z_.segment<3>(3 * j);
+        }
+        z_.segment<3>(3 * s) = a_inv_[static_cast<std::size_t>(s)] * v;
+      }
+      for (int i = 0; i < n; ++i) {
+        step_(i) = z_(3 * i);
+        step_(n + i) = z_(3 * i + 1);
+        step_(2 * n + i) = z_(3 * i + 2);
+      }
     }
     // The boundary-layer blocks alone become singular where the layer separates (with the edge
     // velocity held, the equations cannot fix the layer there; only the coupling does), and the
@@ -1291,16 +1358,17 @@ class CoupledSystem {
   std::vector<Eigen::Matrix3d> blocks_;           // up to 3 L blocks per station
   std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
   std::vector<int> order_;                        // marching order of the stations
-  std::vector<Closure<StationDual>> closure_;     // per station, this assembly's (closure_of)
-  std::vector<int> closure_kind_;                 // the LayerKind of closure_, -1: none yet
+  std::vector<Eigen::Matrix3d> a_inv_;            // inverse diagonal blocks of L (solve_newton)
+  std::vector<int> last_use_, slot_of_, free_slots_;  // solve_newton's row buffers
+  std::vector<Closure<StationDual>> closure_;         // per station, this assembly's (closure_of)
+  std::vector<int> closure_kind_;                     // the LayerKind of closure_, -1: none yet
   // The Newton step's work arrays (NewtonScratch, one per thread): a copy of the system (the
   // settled state kept for the outputs) shares them and never takes a step.
   NewtonScratch& ws_ = newton_scratch();
-  RowMatrix& rhs_ = ws_.rhs;
   Eigen::MatrixXd& cap_t_ = ws_.cap_t;
   Eigen::PartialPivLU<Eigen::MatrixXd>& cap_lu_ = ws_.cap_lu;
   Eigen::VectorXd &dm_ = ws_.dm, &dm_solved_ = ws_.dm_solved, &z_ = ws_.z;
-  Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor>& block_rhs_ = ws_.block_rhs;
+  BlockRows& block_rhs_ = ws_.block_rhs;
   mutable Eigen::VectorXd due_scratch_, jv_;  // scratch of jacobian_times
   int dense_solves_ = 0;                      // Newton steps that needed the dense fallback
   Eigen::VectorXd res_, step_;
