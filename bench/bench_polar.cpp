@@ -6,7 +6,12 @@
 //      numbers; converged fraction from -4 deg up to 2 deg beyond the cl peak (or 20 deg), and
 //      every failure in that range (alpha, reason);
 //   4. the known weak spot: the sharp-nosed optimizer candidate of tests/data (leading-edge
-//      bubble on two panels at 160 panels, DEVELOPERS.md), 4..20 deg at 160, 240 and 320 panels.
+//      bubble on two panels at 160 panels, DEVELOPERS.md), 4..20 deg at 160, 240 and 320 panels;
+//   5. the 20 regression polars of DEVELOPERS.md (NACA 0012, 2412, 4412, 4415, 23012 at Re 2e5,
+//      1e6, 3e6, 6e6; -4..14 deg step 0.5, as sweep_polar runs them): converged points, Newton
+//      iterations counting failed attempts, solver calls. `bench_polar --points FILE` also writes
+//      every point (section, Re, alpha, converged, cl, cd, cm; 10 digits), to compare two builds
+//      point by point.
 #include <time.h>
 
 #include <algorithm>
@@ -15,6 +20,7 @@
 #include <fstream>
 #include <functional>
 #include <limits>
+#include <numbers>
 #include <string>
 #include <vector>
 
@@ -182,9 +188,63 @@ void sharp_nose() {
   }
 }
 
+void regression_polars(const char* points_path) {
+  std::printf(
+      "5. regression polars: NACA 0012 2412 4412 4415 23012 x Re 2e5 1e6 3e6 6e6, -4..14 step "
+      "0.5\n");
+  std::FILE* out = points_path ? std::fopen(points_path, "w") : nullptr;
+  if (points_path && !out) std::printf("   cannot write %s\n", points_path);
+  int ok = 0, points = 0, iterations = 0, solves = 0;
+  const double t0 = thread_cpu_seconds();
+  for (const char* name : {"0012", "2412", "4412", "4415", "23012"})
+    for (double re : {2e5, 1e6, 3e6, 6e6}) {
+      PanellingOptions po;
+      po.panels = 160;
+      ViscousOptions vo;
+      vo.reynolds = re;
+      const ViscousSolver solver(panel_nodes(naca_section(name), po), vo);
+      PolarOptions o;
+      o.alpha_from = -4;
+      o.alpha_to = 14;
+      o.alpha_step = 0.5;
+      // As sweep_polar(solver, o) runs it, counting every Newton iteration.
+      InviscidResult zero;
+      solver.inviscid().solve_for_cl(0.0, zero);
+      const double start = zero.converged ? zero.alpha * 180.0 / std::numbers::pi : 0.0;
+      const PointSolver solve = [&](double alpha, const ViscousState* warm) {
+        ViscousResult r = solver.solve_from(alpha, warm);
+        iterations += r.iterations;
+        return r;
+      };
+      const Polar p = sweep_polar(solve, start, o);
+      solves += p.solves;
+      for (const ViscousResult& r : p.points) {
+        ++points;
+        ok += r.converged;
+        if (out)
+          std::fprintf(out, "%s %g %g %d %.10g %.10g %.10g\n", name, re, r.alpha,
+                       r.converged ? 1 : 0, r.cl, r.cd, r.cm);
+      }
+    }
+  if (out) std::fclose(out);
+  std::printf(
+      "   %d/%d converged, %d Newton iterations counting failed attempts, %d solver calls, "
+      "%.1f s CPU\n",
+      ok, points, iterations, solves, thread_cpu_seconds() - t0);
+}
+
 }  // namespace
 
-int main() {
+int main(int argc, char** argv) {
+  const char* points_path = nullptr;
+  for (int i = 1; i < argc; ++i) {
+    if (std::string(argv[i]) == "--points" && i + 1 < argc) {
+      points_path = argv[++i];
+    } else {
+      std::fprintf(stderr, "usage: bench_polar [--points FILE]\n");
+      return 2;
+    }
+  }
   std::printf("viscous polar benchmark (160 panels, N_crit 9, free transition)\n");
   std::printf("machine: %s; compiled for -march=%s\n", cpu_model().c_str(),
               std::string(FULMAR_BUILD_ARCH).empty() ? "(compiler default)" : FULMAR_BUILD_ARCH);
@@ -192,5 +252,6 @@ int main() {
   polar_times();
   robustness();
   sharp_nose();
+  regression_polars(points_path);
   return 0;
 }

@@ -1000,7 +1000,7 @@ class CoupledSystem {
   // against the double matrix (O(n^2) per refinement) to max |C x - dm| <= kCapacitanceTolerance
   // max |dm|, the accuracy of a double-precision LU. When kCapacitanceRefinements do not get
   // there (C too ill-conditioned for single precision, or out of its range), C is factored in
-  // double precision (in the 20 test polars of DEVELOPERS.md: 127 of 7926 steps; 1.6
+  // double precision (in bench_polar's 20 regression polars: 127 of 7926 steps; 1.6
   // refinements per step on average, and the same converged solutions as a double LU).
   static constexpr int kCapacitanceRefinements = 4;
   static constexpr double kCapacitanceTolerance = 1e-12;
@@ -1279,7 +1279,7 @@ class CoupledSystem {
   // 6.5 -> 7 deg: H 2.25 -> 0.82 at the first turbulent station; the step the other limits let
   // through took it to 1.07), from which the lag equation does not recover and every later step
   // is cut to 1-2 % by the shape-factor floor. Held at this fraction, such warm starts converge
-  // (that one in 8 iterations). Measured on the 20 polars of the tests (NACA 0012, 2412, 4412,
+  // (that one in 8 iterations). Measured on bench_polar's 20 regression polars (NACA 0012, 2412, 4412,
   // 4415, 23012 x Re 2e5-6e6, -4..14 deg step 0.5): the same 740 solutions (cd within 1e-9),
   // Newton iterations including failed attempts 8741 -> 8037, cold starts alone 554 -> 572 of 740.
   // The response to the fraction is irregular: 0.5 gave 617 cold starts but lost NACA 23012 at
