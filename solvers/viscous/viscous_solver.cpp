@@ -859,7 +859,7 @@ class CoupledSystem {
     cap_t_.resize(n, n);
     dm_.resize(n);
     a_inv_.resize(static_cast<std::size_t>(n));
-    bool singular = false;
+    bool singular = false;  // no elimination through L: the dense fallback below solves the step
     // Where each station's rows are last needed (position in order_; -1: by none).
     last_use_.assign(static_cast<std::size_t>(n), -1);
     for (int pos = 0; pos < n; ++pos) {
@@ -931,12 +931,19 @@ class CoupledSystem {
         singular = true;
         break;
       }
-      for (int k = 0; k < count; ++k) {
+      for (int k = 0; k < count && !singular; ++k) {
         if (k == self) continue;
         const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
+        // A block on a station not yet eliminated would mean L is not lower triangular in the
+        // marching order: not expected; the dense fallback solves such a system.
+        if (slot_of_[static_cast<std::size_t>(j)] < 0) {
+          singular = true;
+          break;
+        }
         b.noalias() -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] *
                        ws_.w_rows[static_cast<std::size_t>(slot_of_[j])];
       }
+      if (singular) break;
       x.noalias() = a_inv * b;
       // The capacitance matrix is stored transposed (its columns are these rows, contiguous).
       cap_t_.col(s) = x.row(2).tail(n).transpose();
@@ -1279,8 +1286,8 @@ class CoupledSystem {
   // 6.5 -> 7 deg: H 2.25 -> 0.82 at the first turbulent station; the step the other limits let
   // through took it to 1.07), from which the lag equation does not recover and every later step
   // is cut to 1-2 % by the shape-factor floor. Held at this fraction, such warm starts converge
-  // (that one in 8 iterations). Measured on bench_polar's 20 regression polars (NACA 0012, 2412, 4412,
-  // 4415, 23012 x Re 2e5-6e6, -4..14 deg step 0.5): the same 740 solutions (cd within 1e-9),
+  // (that one in 8 iterations). Measured on bench_polar's 20 regression polars (NACA 0012, 2412,
+  // 4412, 4415, 23012 x Re 2e5-6e6, -4..14 deg step 0.5): the same 740 solutions (cd within 1e-9),
   // Newton iterations including failed attempts 8741 -> 8037, cold starts alone 554 -> 572 of 740.
   // The response to the fraction is irregular: 0.5 gave 617 cold starts but lost NACA 23012 at
   // 10.5 deg cold and one polar point, 0.7 gave 575 and lost 13 cold starts of the cold-start test.
