@@ -6,6 +6,7 @@
 #include <gtest/gtest.h>
 
 #include <string>
+#include <utility>
 
 #include <cmath>
 #include <functional>
@@ -461,21 +462,29 @@ TEST(SweepPolar, Naca0012MaximumLiftAtSixMillion) {
               s.alpha_cl_max, p.solves, s.note.c_str());
 }
 
-// NACA 2412, Re 6e6, free transition, 160 panels: cl_max against Abbott & von Doenhoff 1959
-// (Appendix IV, smooth section near Re 5.9e6: about 1.7, from memory), within the 0.15 the issue
-// allows for an integral boundary layer near stall (its trailing-edge separation is the least
-// certain part of the model). Measured 1.800 at 18.1 deg. Not a check for NACA 4412, which the
-// model puts at 1.836 against about 1.67 (from memory), 0.17 high: outside that allowance, and
-// reported as a known over-prediction of cambered sections' stall (DEVELOPERS.md).
-TEST(SweepPolar, Naca2412MaximumLiftAtSixMillion) {
+// NACA 2412 and 4412, Re 6e6, free transition, 160 panels: cl_max against Abbott & von Doenhoff
+// 1959 (Appendix IV, smooth sections near Re 5.9e6: about 1.7 and about 1.67, both from memory),
+// within the 0.15 the issue allows for an integral boundary layer near stall (its trailing-edge
+// separation is the least certain part of the model). Measured 1.762 at 17.2 deg and 1.782 at
+// 16.0 deg, both high (1.800 and 1.834 when the lift was the circulation of the edge speed).
+class MaximumLiftOfCamberedSection
+    : public ::testing::TestWithParam<std::pair<const char*, double>> {};
+
+TEST_P(MaximumLiftOfCamberedSection, WithinHandbookAllowanceAtSixMillion) {
+  const auto [naca, handbook] = GetParam();
   PolarOptions o;
-  const Polar p = stall_polar("2412", o);
+  const Polar p = stall_polar(naca, o);
   const PolarSummary& s = p.summary;
   ASSERT_TRUE(s.has_cl_max) << s.note;
-  EXPECT_NEAR(s.cl_max, 1.7, 0.15) << s.note;
-  std::printf("NACA 2412 Re 6e6: cl_max %.4f at %.2f deg (%d solves): %s\n", s.cl_max,
+  ASSERT_TRUE(s.cl_max_bracketed) << s.note;
+  EXPECT_NEAR(s.cl_max, handbook, 0.15) << s.note;
+  std::printf("NACA %s Re 6e6: cl_max %.4f at %.2f deg (%d solves): %s\n", naca, s.cl_max,
               s.alpha_cl_max, p.solves, s.note.c_str());
 }
+
+INSTANTIATE_TEST_SUITE_P(SweepPolar, MaximumLiftOfCamberedSection,
+                         ::testing::Values(std::pair<const char*, double>{"2412", 1.7},
+                                           std::pair<const char*, double>{"4412", 1.67}));
 
 // Robustness at low Reynolds number, where laminar separation bubbles move the transition by an
 // interval or two per half degree: NACA 4415, Re 2e5, free transition, 160 panels, -4..14 deg in

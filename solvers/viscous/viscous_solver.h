@@ -10,8 +10,8 @@
 // stations' arc length is in the Jacobian; it may hop a node between iterations).
 //
 // Drag: Squire-Young (ARC R&M 1838, 1938) at the wake end, cd = 2 theta (ue)^((H + 5)/2);
-// friction drag from the wall shear; pressure drag = cd - cd_friction. cl and cm from the viscous
-// surface speed (Karman-Tsien for M > 0 on the loads; the boundary layer itself is
+// friction drag from the wall shear; pressure drag = cd - cd_friction. cl and cm from the pressures
+// of the viscous surface speed (Karman-Tsien for M > 0; the boundary layer itself is
 // incompressible apart from the Mach terms in its closures).
 #include <Eigen/Core>
 #include <nlohmann/json.hpp>
