@@ -10,7 +10,6 @@
 namespace fulmar::optimize {
 namespace {
 
-
 std::string f(double v) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.2f", v);
@@ -102,7 +101,8 @@ void draw_chart(std::ostringstream& o, const Chart& c, double x0, double y0, dou
         << f(x0 + left + pw) << "\" y2=\"" << f(Y(g.value)) << "\" stroke=\"" << g.colour
         << "\" stroke-width=\"1\" stroke-dasharray=\"6 3\"/>\n"
         << "<text x=\"" << f(x0 + left + pw - 4) << "\" y=\"" << f(Y(g.value) - 4)
-        << "\" text-anchor=\"end\" fill=\"" << g.colour << "\">" << xml_escaped(g.label) << "</text>\n";
+        << "\" text-anchor=\"end\" fill=\"" << g.colour << "\">" << xml_escaped(g.label)
+        << "</text>\n";
     else
       o << "<line x1=\"" << f(X(g.value)) << "\" y1=\"" << f(y0 + top) << "\" x2=\""
         << f(X(g.value)) << "\" y2=\"" << f(y0 + top + ph) << "\" stroke=\"" << g.colour

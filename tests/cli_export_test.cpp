@@ -90,7 +90,9 @@ struct BadRequest {
   const char* message;            // part of the expected message on stderr
 };
 
-void PrintTo(const BadRequest& b, std::ostream* os) { *os << b.label; }
+void PrintTo(const BadRequest& b, std::ostream* os) {
+  *os << b.label;
+}
 
 class CliExportBad : public ::testing::TestWithParam<BadRequest> {};
 

@@ -8,18 +8,18 @@
 namespace fulmar::testing {
 namespace {
 
-// The "Kittiwake K-3" worked example of src/flight/flight_conditions_test.cpp (a fictional airplane of
-// our own), through the command line: the same hand-calculated figures (exact solution of the lift
-// equation on the ISO 2533:1975 atmosphere), 1e-4 relative because they carry five figures.
+// The "Kittiwake K-3" worked example of src/flight/flight_conditions_test.cpp (a fictional airplane
+// of our own), through the command line: the same hand-calculated figures (exact solution of the
+// lift equation on the ISO 2533:1975 atmosphere), 1e-4 relative because they carry five figures.
 TEST(CliFlight, KittiwakeJson) {
-  const CliResult r = run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord",
-                                  "1.30", "--speed", "62", "--altitude", "2500", "--stall-speed",
-                                  "25", "--json"});
+  const CliResult r =
+      run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord", "1.30", "--speed",
+                  "62", "--altitude", "2500", "--stall-speed", "25", "--json"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   const auto j = nlohmann::json::parse(r.out);
-  for (const char* key : {"temperature", "pressure", "density", "viscosity", "speed_of_sound",
-                          "dynamic_pressure", "cl", "reynolds", "mach", "cl_max_required",
-                          "stall_reynolds"}) {
+  for (const char* key :
+       {"temperature", "pressure", "density", "viscosity", "speed_of_sound", "dynamic_pressure",
+        "cl", "reynolds", "mach", "cl_max_required", "stall_reynolds"}) {
     EXPECT_TRUE(j.contains(key)) << key;
   }
   EXPECT_NEAR(j["cl"].get<double>(), 0.35856, 1e-4 * 0.35856);
@@ -46,9 +46,9 @@ TEST(CliFlight, BadValuesAreExitTwoWithTheOptionNamed) {
   EXPECT_NE(high.err.find("--altitude"), std::string::npos) << high.err;
   const CliResult missing = run_fulmar({"flight", "--mass", "780"});
   EXPECT_EQ(missing.exit_code, 2);
-  const CliResult lone = run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord",
-                                     "1.3", "--speed", "62", "--altitude", "0",
-                                     "--stall-altitude", "100"});
+  const CliResult lone =
+      run_fulmar({"flight", "--mass", "780", "--wing-area", "11.6", "--chord", "1.3", "--speed",
+                  "62", "--altitude", "0", "--stall-altitude", "100"});
   EXPECT_EQ(lone.exit_code, 2);
   EXPECT_NE(lone.err.find("--stall-speed"), std::string::npos) << lone.err;
 }

@@ -16,8 +16,10 @@ namespace {
 std::string quoted(const std::string& s) {
   std::string q = "'";
   for (char c : s) {
-    if (c == '\'') q += "'\\''";
-    else q += c;
+    if (c == '\'')
+      q += "'\\''";
+    else
+      q += c;
   }
   return q + "'";
 }
@@ -34,15 +36,16 @@ std::string read_file(const fs::path& path) {
 
 fs::path fresh_directory(const std::string& tag) {
   static int counter = 0;
-  fs::path dir = fs::temp_directory_path() /
-                 ("fulmar_" + tag + "_" + std::to_string(::getpid()) + "_" +
-                  std::to_string(counter++));
+  fs::path dir = fs::temp_directory_path() / ("fulmar_" + tag + "_" + std::to_string(::getpid()) +
+                                              "_" + std::to_string(counter++));
   fs::remove_all(dir);
   fs::create_directories(dir);
   return dir;
 }
 
-fs::path source_dir() { return fs::path(FULMAR_SOURCE_DIR); }
+fs::path source_dir() {
+  return fs::path(FULMAR_SOURCE_DIR);
+}
 
 CliResult run_fulmar(const std::vector<std::string>& args, const fs::path& cwd) {
   const char* bin = std::getenv("FULMAR_BIN");
@@ -61,8 +64,10 @@ CliResult run_fulmar(const std::vector<std::string>& args, const fs::path& cwd) 
   cmd.append(" 2>").append(quoted(err.string())).append(" </dev/null");
   const int status = std::system(cmd.c_str());
   CliResult r;
-  if (WIFEXITED(status)) r.exit_code = WEXITSTATUS(status);
-  else if (WIFSIGNALED(status)) r.exit_code = 128 + WTERMSIG(status);
+  if (WIFEXITED(status))
+    r.exit_code = WEXITSTATUS(status);
+  else if (WIFSIGNALED(status))
+    r.exit_code = 128 + WTERMSIG(status);
   r.out = read_file(out);
   r.err = read_file(err);
   fs::remove_all(dir);

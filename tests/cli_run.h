@@ -7,9 +7,9 @@
 namespace fulmar::testing {
 
 struct CliResult {
-  int exit_code = -1;   // the process exit status (128 + signal if it was killed)
-  std::string out;      // everything written to stdout
-  std::string err;      // everything written to stderr
+  int exit_code = -1;  // the process exit status (128 + signal if it was killed)
+  std::string out;     // everything written to stdout
+  std::string err;     // everything written to stderr
 };
 
 // Runs `fulmar args...` (the binary named by the FULMAR_BIN environment variable, which CTest

@@ -37,7 +37,6 @@ std::string fixed(double v, int decimals) {
   return buf;
 }
 
-
 // The label of one design-point result: the point's name, with the scenario when the case has
 // several transition scenarios.
 std::vector<std::string> design_point_labels(const std::vector<PointRecord>& records) {
@@ -142,7 +141,8 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
     << "<text x=\"" << f(left + cell_w * double(cols.size()) / 2)
     << "\" y=\"42\" text-anchor=\"middle\">" << xml_escaped(study.parameters[1].name) << "</text>\n"
     << "<text transform=\"translate(16," << f(top + cell_h * double(rows.size()) / 2)
-    << ") rotate(-90)\" text-anchor=\"middle\">" << xml_escaped(study.parameters[0].name) << "</text>\n";
+    << ") rotate(-90)\" text-anchor=\"middle\">" << xml_escaped(study.parameters[0].name)
+    << "</text>\n";
   for (size_t j = 0; j < cols.size(); ++j)
     o << "<text x=\"" << f(left + cell_w * (double(j) + 0.5)) << "\" y=\"" << f(top - 4)
       << "\" text-anchor=\"middle\">" << number_text(cols[j]) << "</text>\n";
@@ -176,8 +176,8 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
         if (!rec->summary.value("feasible", false))
           marks += marks.empty() ? "infeasible" : " infeasible";
         o << "<text x=\"" << f(x + cell_w / 2) << "\" y=\"" << f(y + 32)
-          << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">" << xml_escaped(marks)
-          << "</text>\n";
+          << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">"
+          << xml_escaped(marks) << "</text>\n";
       }
     }
   }

@@ -26,12 +26,10 @@ namespace {
 std::array<Dual, 3> residuals_of(const IntervalSpec& spec, const Dual& x1, const Dual& x2,
                                  const std::array<Dual, 4>& a, const std::array<Dual, 4>& b,
                                  const FlowConditions& flow, double* fraction_out,
-                                 const StationState* s1 = nullptr,
-                                 const StationState* s2 = nullptr,
+                                 const StationState* s1 = nullptr, const StationState* s2 = nullptr,
                                  const IntervalClosures& given = {}) {
   auto same_kind = [&](LayerKind kind, double gap1, double gap2) {
-    if (!s1 || !s2)
-      return interval_residuals(kind, x1, x2, a.data(), b.data(), flow, gap1, gap2);
+    if (!s1 || !s2) return interval_residuals(kind, x1, x2, a.data(), b.data(), flow, gap1, gap2);
     return interval_residuals(
         kind, x1, x2, a.data(), b.data(),
         widen(given.first ? *given.first : station_closure(kind, *s1, flow, gap1), 0),
@@ -85,13 +83,13 @@ IntervalLinearization linearize_interval(const IntervalSpec& spec, const Station
     x1.d[kOriginShift] = 1.0;
     x2.d[kOriginShift] = 1.0;
   }
-  const std::array<Dual, 3> r = residuals_of(spec, x1, x2, a, b, flow, fraction_out, &s1, &s2, given);
+  const std::array<Dual, 3> r =
+      residuals_of(spec, x1, x2, a, b, flow, fraction_out, &s1, &s2, given);
   IntervalLinearization lin;
   for (int i = 0; i < 3; ++i) {
     lin.r(i) = r[i].v;
     for (int k = 0; k < 8; ++k) lin.j(i, k) = r[i].d[static_cast<std::size_t>(k)];
-    if (d_origin)
-      (*d_origin)(i) = r[i].d[static_cast<std::size_t>(similarity ? 0 : kOriginShift)];
+    if (d_origin) (*d_origin)(i) = r[i].d[static_cast<std::size_t>(similarity ? 0 : kOriginShift)];
   }
   return lin;
 }

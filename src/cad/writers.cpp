@@ -670,7 +670,6 @@ std::string csv_text(const CadDrawing& d) {
 
 namespace {
 
-
 std::string num(double v) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.6g", v);

@@ -38,14 +38,14 @@ void require_writable(const fs::path& path) {
   }
 }
 
-void write_file_atomically(const fs::path& path,
-                           const std::function<void(std::ostream&)>& writer) {
+void write_file_atomically(const fs::path& path, const std::function<void(std::ostream&)>& writer) {
   require_writable(path);
   const fs::path tmp = temporary_beside(path);
   {
     std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    if (!out) throw InputError("cannot write '" + path.string() + "': cannot create '" +
-                               tmp.string() + "'");
+    if (!out)
+      throw InputError("cannot write '" + path.string() + "': cannot create '" + tmp.string() +
+                       "'");
     try {
       writer(out);
     } catch (...) {

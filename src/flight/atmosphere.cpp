@@ -32,9 +32,8 @@ AtmosphereState standard_atmosphere(double altitude_m, double temperature_offset
         std::pow(t_std / kSeaLevelTemperature, g_over_r / kTroposphereLapseRate);
   } else {
     const double t_tropopause = kSeaLevelTemperature - kTroposphereLapseRate * kTropopauseAltitude;
-    const double p_tropopause =
-        kSeaLevelPressure *
-        std::pow(t_tropopause / kSeaLevelTemperature, g_over_r / kTroposphereLapseRate);
+    const double p_tropopause = kSeaLevelPressure * std::pow(t_tropopause / kSeaLevelTemperature,
+                                                             g_over_r / kTroposphereLapseRate);
     t_std = t_tropopause;
     p = p_tropopause * std::exp(-g_over_r * (altitude_m - kTropopauseAltitude) / t_tropopause);
   }

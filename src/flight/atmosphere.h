@@ -7,14 +7,14 @@
 namespace fulmar {
 
 // Constants of the standard (ISO 2533:1975, table 1).
-inline constexpr double kStandardGravity = 9.80665;       // m/s^2
-inline constexpr double kAirGasConstant = 287.05287;      // J/(kg K)
-inline constexpr double kAirHeatRatio = 1.4;              // cp/cv of dry air
-inline constexpr double kSeaLevelTemperature = 288.15;    // K
-inline constexpr double kSeaLevelPressure = 101325.0;     // Pa
-inline constexpr double kTroposphereLapseRate = 0.0065;   // K/m
-inline constexpr double kTropopauseAltitude = 11000.0;    // m geopotential
-inline constexpr double kAtmosphereCeiling = 20000.0;     // m geopotential: the range fulmar covers
+inline constexpr double kStandardGravity = 9.80665;      // m/s^2
+inline constexpr double kAirGasConstant = 287.05287;     // J/(kg K)
+inline constexpr double kAirHeatRatio = 1.4;             // cp/cv of dry air
+inline constexpr double kSeaLevelTemperature = 288.15;   // K
+inline constexpr double kSeaLevelPressure = 101325.0;    // Pa
+inline constexpr double kTroposphereLapseRate = 0.0065;  // K/m
+inline constexpr double kTropopauseAltitude = 11000.0;   // m geopotential
+inline constexpr double kAtmosphereCeiling = 20000.0;    // m geopotential: the range fulmar covers
 
 // The state of the air at one altitude. SI units.
 struct AtmosphereState {

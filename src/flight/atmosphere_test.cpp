@@ -9,10 +9,10 @@ namespace {
 
 // One row of the standard-atmosphere table at a geopotential altitude.
 struct TableRow {
-  double altitude;     // m geopotential
-  double temperature;  // K
-  double pressure;     // Pa
-  double density;      // kg/m^3
+  double altitude;        // m geopotential
+  double temperature;     // K
+  double pressure;        // Pa
+  double density;         // kg/m^3
   double speed_of_sound;  // m/s
 };
 
@@ -31,12 +31,11 @@ TEST_P(StandardAtmosphereTable, MatchesPublishedTable) {
   EXPECT_NEAR(s.speed_of_sound, row.speed_of_sound, 1e-4 * row.speed_of_sound);
 }
 
-INSTANTIATE_TEST_SUITE_P(
-    Iso2533, StandardAtmosphereTable,
-    ::testing::Values(TableRow{0.0, 288.15, 101325.0, 1.2250, 340.29},
-                      TableRow{5000.0, 255.65, 54020.0, 0.73612, 320.53},
-                      TableRow{11000.0, 216.65, 22632.0, 0.36392, 295.07},
-                      TableRow{20000.0, 216.65, 5474.9, 0.088035, 295.07}));
+INSTANTIATE_TEST_SUITE_P(Iso2533, StandardAtmosphereTable,
+                         ::testing::Values(TableRow{0.0, 288.15, 101325.0, 1.2250, 340.29},
+                                           TableRow{5000.0, 255.65, 54020.0, 0.73612, 320.53},
+                                           TableRow{11000.0, 216.65, 22632.0, 0.36392, 295.07},
+                                           TableRow{20000.0, 216.65, 5474.9, 0.088035, 295.07}));
 
 // Source: ISO 2533:1975 gives the sea-level dynamic viscosity 1.7894e-5 Pa s at 288.15 K.
 // Tolerance: the printed value has five figures.

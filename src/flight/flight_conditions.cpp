@@ -17,7 +17,9 @@ void require_positive(const char* field, double value, const char* unit) {
   }
 }
 
-double weight(const Airplane& a) { return a.mass * kStandardGravity; }
+double weight(const Airplane& a) {
+  return a.mass * kStandardGravity;
+}
 
 }  // namespace
 

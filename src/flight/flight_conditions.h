@@ -43,8 +43,8 @@ struct StallConditions {
 };
 
 // Default wing-to-section factor: CL_max(wing) = 0.9 cl_max(section) for a clean, unswept,
-// high-aspect-ratio wing (Raymer, Aircraft Design: A Conceptual Approach, the clean-wing maximum-lift
-// relation of the chapter on aerodynamics).
+// high-aspect-ratio wing (Raymer, Aircraft Design: A Conceptual Approach, the clean-wing
+// maximum-lift relation of the chapter on aerodynamics).
 inline constexpr double kWingToSectionFactor = 0.9;
 
 // The maximum lift the stall speed needs at `altitude`. `wing_to_section` in (0, 1.2] converts

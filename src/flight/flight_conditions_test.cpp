@@ -9,11 +9,10 @@
 namespace fulmar {
 namespace {
 
-// Worked example, a scenario of our own: the "Kittiwake K-3", a fictional two-seat touring airplane of
-// 780 kg with 11.6 m^2 of wing and a 1.30 m mean chord, cruising at 62 m/s true airspeed at
-// 2 500 m, and required to stall at no more than 25 m/s at sea level.
-// Hand calculation (ISA at 2 500 m: T = 271.90 K, rho = 0.95686 kg/m^3, mu = 1.70989e-5 Pa s,
-// a = 330.559 m/s):
+// Worked example, a scenario of our own: the "Kittiwake K-3", a fictional two-seat touring airplane
+// of 780 kg with 11.6 m^2 of wing and a 1.30 m mean chord, cruising at 62 m/s true airspeed at 2
+// 500 m, and required to stall at no more than 25 m/s at sea level. Hand calculation (ISA at 2 500
+// m: T = 271.90 K, rho = 0.95686 kg/m^3, mu = 1.70989e-5 Pa s, a = 330.559 m/s):
 //   W = 780 * 9.80665 = 7649.19 N
 //   q = 0.5 * 0.95686 * 62^2 = 1839.08 Pa
 //   CL = W / (q S) = 7649.19 / (1839.08 * 11.6) = 0.35856
