@@ -382,7 +382,10 @@ class CoupledSystem {
   StagnationFraction stagnation_fraction(int side) const {
     const int k = lay_.stag;
     const Eigen::VectorXd& u = ue_valid_ ? ue_ : cold_ue_;
-    const double a = u(k), b = u(k + 1);
+    return stagnation_fraction(side, u(k), u(k + 1));
+  }
+  // The same for the speeds a, b at the nodes stag and stag + 1.
+  static StagnationFraction stagnation_fraction(int side, double a, double b) {
     StagnationFraction f;
     f.sum = std::max(a + b, 1e-10);
     const double raw = (side == 0 ? a : b) / f.sum;
@@ -1235,9 +1238,16 @@ class CoupledSystem {
     for (int k = 0; k < 20; ++k) {
       bool sign_ok = true, floor_ok = true;
       for (int i = 0; i < n && sign_ok; ++i) {
-        const double u = ue_(i) + rlx * due(i);
-        if (i == lay_.stag || i == lay_.stag + 1) continue;
-        if (u <= 0.0) {
+        double u = ue_(i) + rlx * due(i);
+        const int first_side = first_station_side(i);
+        if (first_side >= 0) {
+          // A first station's delta* is m over the modelled speed near the stagnation point
+          // (first_speed), which stays positive; its H is held above the floor like any other.
+          const int k = lay_.stag;
+          const StagnationFraction f =
+              stagnation_fraction(first_side, ue_(k) + rlx * due(k), ue_(k + 1) + rlx * due(k + 1));
+          u = f.t * f.sum;
+        } else if (u <= 0.0) {
           sign_ok = false;
           limited_by_ = "edge velocity sign at station " + std::to_string(i);
           break;
