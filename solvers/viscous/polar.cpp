@@ -12,6 +12,12 @@
 namespace fulmar::viscous {
 namespace {
 
+// A converged angle of a march (deg) and its lift; valid false: none.
+struct LiftPoint {
+  double alpha = 0.0, cl = 0.0;
+  bool valid = false;
+};
+
 void require(bool ok, const char* field, double value, const std::string& rule) {
   if (ok) return;
   std::ostringstream msg;
@@ -354,37 +360,58 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     ++polar.solves;
     return solve(alpha, warm);
   };
-  // The result at `target` from the last converged result `anchor` (null: none): warm, then
-  // cold, then (with `sub_step`) halved sub-steps from the anchor. A converged sub-step short of
-  // the target replaces the anchor, so the march goes on from the nearest converged state.
-  auto advance = [&](ViscousResult* anchor, double target, bool sub_step) {
+  // The lift the line through the last two converged angles of a march predicts at `alpha`
+  // (before.valid false: no prediction). A converged step whose lift misses it by more than
+  // kLiftJumpCheck may have left the branch the march follows (a long Newton path can end on
+  // another solution of the coupled equations near stall, where the boundary-layer equations
+  // have several), so it is checked by halved sub-steps.
+  auto jumped = [](const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r) {
+    if (!before.valid || !r.converged || before.alpha == anchor.alpha) return false;
+    const double slope = (anchor.cl - before.cl) / (anchor.alpha - before.alpha);
+    return std::abs(r.cl - (anchor.cl + slope * (r.alpha - anchor.alpha))) > kLiftJumpCheck;
+  };
+  // The result at `target` from the last converged result `anchor` (null: none; `before`: the
+  // converged angle before it in the march): warm; when that fails or jumped, and with
+  // `sub_step`, halved sub-steps from the anchor (each one checked in the same way, down to
+  // kMinSubStep, where any converged one is taken); then the jumped warm result if it
+  // converged; then cold. A converged sub-step short of the target replaces the anchor (and
+  // `before`), so the march goes on from the nearest converged state.
+  auto advance = [&](ViscousResult* anchor, LiftPoint* before, double target, bool sub_step) {
     if (!anchor) return call(target, nullptr);
     ViscousResult r = call(target, &anchor->state);
+    r.alpha = target;
+    if (r.converged && !jumped(*before, *anchor, r)) return r;
+    if (sub_step) {
+      const double dir = target > anchor->alpha ? 1.0 : -1.0;
+      ViscousResult cur = *anchor;
+      LiftPoint prior = *before;
+      double h = 0.5 * (target - anchor->alpha);
+      while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
+        double a = cur.alpha + h;
+        if ((target - a) * dir < 1e-9) a = target;
+        ViscousResult t = call(a, &cur.state);
+        t.alpha = a;
+        const bool smallest = std::abs(0.5 * h) < kMinSubStep * (1.0 - 1e-9);
+        if (!t.converged || (!smallest && jumped(prior, cur, t))) {
+          h *= 0.5;
+          continue;
+        }
+        if (a == target) return t;
+        sub_steps.push_back(t);
+        prior = {cur.alpha, cur.cl, true};
+        cur = std::move(t);
+      }
+      if (cur.alpha != anchor->alpha) {
+        *before = prior;
+        *anchor = std::move(cur);
+      }
+    }
     if (r.converged) return r;
     ViscousResult cold = call(target, nullptr);
     if (cold.converged) return cold;
-    if (!sub_step) {
-      r.reason += "; cold start also failed";
-      return r;
-    }
-    const double dir = target > anchor->alpha ? 1.0 : -1.0;
-    ViscousResult cur = *anchor;
-    double h = 0.5 * (target - anchor->alpha);
-    while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
-      double a = cur.alpha + h;
-      if ((target - a) * dir < 1e-9) a = target;
-      ViscousResult t = call(a, &cur.state);
-      if (!t.converged) {
-        h *= 0.5;
-        continue;
-      }
-      if (a == target) return t;
-      sub_steps.push_back(t);
-      cur = std::move(t);
-    }
-    if (cur.alpha != anchor->alpha) *anchor = std::move(cur);
-    r.reason += "; cold start and sub-steps down to " + fmt(kMinSubStep, 2) +
-                " deg from the last converged angle also failed";
+    r.reason += sub_step ? "; sub-steps down to " + fmt(kMinSubStep, 2) +
+                               " deg from the last converged angle and a cold start also failed"
+                         : "; cold start also failed";
     return r;
   };
 
@@ -395,20 +422,23 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
   bool have_lead = false;
   const double a0 = std::clamp(alpha_start_deg, -60.0, 60.0);
   bool lead_previous = false;
+  LiftPoint lead_before;
   if (std::abs(grid[start] - a0) > options.alpha_step + 1e-9) {
     lead = call(a0, nullptr);
     have_lead = lead_previous = lead.converged;
     const double h = std::min(options.alpha_step, 1.0) * (grid[start] > a0 ? 1.0 : -1.0);
     for (double a = a0 + h; std::abs(grid[start] - a) > 1e-9 && (grid[start] - a) * h > 0; a += h) {
-      ViscousResult r = advance(have_lead ? &lead : nullptr, a, lead_previous);
+      ViscousResult r = advance(have_lead ? &lead : nullptr, &lead_before, a, lead_previous);
       lead_previous = r.converged;
       if (r.converged) {
+        if (have_lead) lead_before = {lead.alpha, lead.cl, true};
         lead = std::move(r);
         have_lead = true;
       }
     }
   }
-  polar.points[start] = advance(have_lead ? &lead : nullptr, grid[start], lead_previous);
+  polar.points[start] =
+      advance(have_lead ? &lead : nullptr, &lead_before, grid[start], lead_previous);
   polar.points[start].alpha = grid[start];
 
   for (int dir : {+1, -1}) {
@@ -417,11 +447,14 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     bool have_anchor = polar.points[start].converged || have_lead;
     anchor = polar.points[start].converged ? polar.points[start] : lead;
     bool previous_converged = polar.points[start].converged;
+    LiftPoint before;  // the converged angle before the anchor in this march
     for (int i = start + dir; i >= 0 && i < n; i += dir) {
-      ViscousResult r = advance(have_anchor ? &anchor : nullptr, grid[i], previous_converged);
+      ViscousResult r =
+          advance(have_anchor ? &anchor : nullptr, &before, grid[i], previous_converged);
       r.alpha = grid[i];
       previous_converged = r.converged;
       if (r.converged) {
+        if (have_anchor) before = {anchor.alpha, anchor.cl, true};
         anchor = r;
         have_anchor = true;
       }

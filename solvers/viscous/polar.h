@@ -32,6 +32,10 @@ struct PolarOptions {
 // state; also the width (deg) to which a lift maximum is refined.
 inline constexpr double kMinSubStep = 0.05;
 inline constexpr double kClMaxRefineWidth = 0.05;
+// A converged step of a march whose cl differs by more than this from the line through the two
+// converged angles before it is checked by halved sub-steps (it may have jumped to another
+// solution branch near stall; a real jump is found again by the sub-steps).
+inline constexpr double kLiftJumpCheck = 0.05;
 
 // Relative drag rise that bounds the low-drag range: the range is the cl interval around the
 // drag minimum where cd <= (1 + kBucketDragRise) cd_min.
@@ -96,9 +100,11 @@ using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousS
 // angle nearest the inviscid zero-lift angle (cold; when the grid does not reach the zero-lift
 // angle, warm from a lead-in march from it in steps of at most alpha_step and 1 deg); from there
 // the march goes up to alpha_to and down to alpha_from, each angle warm-started from the last
-// converged state. A failed warm start is retried cold, then (when the previous grid angle
-// converged) approached by sub-steps from the last converged state, halving down to
-// kMinSubStep. Each solve is one ViscousSolver::solve_from (these fallbacks replace
+// converged state. A warm start that fails, or converges with a lift more than kLiftJumpCheck
+// off the line through the two converged angles before it, is (when the previous grid angle
+// converged) approached by sub-steps from the last converged state, each checked in the same
+// way, halving down to kMinSubStep; then the jumped warm result is taken if it converged, else a
+// cold start is tried. Each solve is one ViscousSolver::solve_from (these fallbacks replace
 // solve_alpha's). A point that still
 // fails is recorded with converged = false and the march goes on from the last converged state;
 // after the march, a failed angle next to a converged one is tried warm-started from it (far
