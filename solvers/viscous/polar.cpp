@@ -142,10 +142,23 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
     std::stable_sort(lift.begin(), lift.end(),
                      [](auto* a, auto* b) { return a->alpha < b->alpha; });
   }
-  const int nl = static_cast<int>(lift.size());
+  // The stall ends the search: once cl has fallen kStallLiftDrop below the highest value so far,
+  // later points are post-stall, where a second rise (seen on NACA 2412 at Re 2e5: 1.09 at 20.5
+  // deg, then 1.38 at 21, above the 1.24 of the stall at 14) is not the section's cl_max.
+  int nl = static_cast<int>(lift.size());
   int k = 0;
-  for (int i = 1; i < nl; ++i)
+  for (int i = 1; i < nl; ++i) {
     if (lift[i]->cl > lift[k]->cl) k = i;
+    if (lift[i]->cl < lift[k]->cl - kStallLiftDrop) {
+      if (i + 1 < nl)
+        add_note(s.note, "stall: at alpha " + fmt(lift[i]->alpha) + " cl is more than " +
+                             fmt(kStallLiftDrop) +
+                             " below its maximum; the points beyond are post-stall and not "
+                             "searched for cl_max");
+      nl = i + 1;
+      break;
+    }
+  }
   s.cl_max = lift[k]->cl;
   s.alpha_cl_max = lift[k]->alpha;
   if (k == 0 && nl > 1) {

@@ -37,6 +37,12 @@ inline constexpr double kClMaxRefineWidth = 0.05;
 // solution branch near stall; a real jump is found again by the sub-steps).
 inline constexpr double kLiftJumpCheck = 0.05;
 
+// A fall of cl by this much below the highest value so far marks the stall: cl_max is sought
+// only up to that point (a post-stall rise is not the section's maximum). 0.05 is ten times the
+// wiggles of converged polars near the peak at Re 2e5 (about 0.005) and below the fall of a
+// trailing-edge stall over 2-3 deg past the peak (NACA 4412 at Re 6e6: 0.044 over 2 deg).
+inline constexpr double kStallLiftDrop = 0.05;
+
 // Relative drag rise that bounds the low-drag range: the range is the cl interval around the
 // drag minimum where cd <= (1 + kBucketDragRise) cd_min.
 inline constexpr double kBucketDragRise = 0.10;

@@ -176,6 +176,27 @@ TEST(SummarizePolar, ExtraSamplesCountForTheMaximumOnly) {
   EXPECT_TRUE(l.cl_max_bracketed);
 }
 
+// Post-stall rise: cl peaks at 1.2 (10 deg), falls to 1.0 at 14 deg, then rises to 1.4 at 18.
+// The stall (cl more than 0.05 below the maximum so far: at 12 deg) ends the search, so cl_max is
+// the first peak, bracketed, and the note says why the later rise is left out.
+TEST(SummarizePolar, PostStallRiseIsNotTheMaximum) {
+  const auto pts = synthetic(0.0, 20.0, 1.0, [](double a) {
+    double cl = 0.12 * a;
+    if (a > 10.0) cl = a <= 14.0 ? 1.2 - 0.05 * (a - 10.0) : 1.0 + 0.1 * std::min(a - 14.0, 4.0);
+    return point(a, cl, 0.02, 0.0);
+  });
+  const PolarSummary s = summarize_polar(pts);
+  EXPECT_TRUE(s.cl_max_bracketed);
+  EXPECT_NEAR(s.cl_max, 1.2, 1e-12);
+  EXPECT_DOUBLE_EQ(s.alpha_cl_max, 10.0);
+  EXPECT_NE(s.note.find("post-stall"), std::string::npos) << s.note;
+  // A fall smaller than kStallLiftDrop (0.04 at 6 deg) before a higher value is not a stall.
+  const auto wiggle = synthetic(
+      0.0, 12.0, 1.0, [](double a) { return point(a, a == 6.0 ? 0.46 : 0.1 * a, 0.02, 0.0); });
+  const PolarSummary w = summarize_polar(wiggle);
+  EXPECT_NEAR(w.cl_max, 1.2, 1e-12);
+}
+
 // A stand-in point solver: cl, cd, cm given as functions of alpha; its state remembers the angle
 // it belongs to (in stations[0].c) so the tests can see which state warm-started a solve.
 struct StandIn {
