@@ -62,8 +62,9 @@ Points nodes_for(const Section& section, int panels) {
 // not where the 2-deg grid happens to fall (a parabola through grid points jumped by up to 0.01
 // when the best grid point changed). When the solutions stop converging beyond the best point,
 // the march goes on from it in 0.5-deg steps and the last converged value is cl_max (a lower
-// bound: stall and solver failure cannot be told apart). A cl still rising at 26 deg is reported
-// as not found (with the largest value seen).
+// bound: stall and solver failure cannot be told apart). A step whose lift jumps up off the line
+// through the two before it is checked by sub-steps (viscous::sub_step_march). A cl still rising at
+// 26 deg is reported as not found (with the largest value seen).
 ClMaxResult find_cl_max(const viscous::ViscousSolver& solver) {
   ClMaxResult out;
   std::vector<viscous::ViscousResult> done;  // converged, increasing alpha
@@ -79,6 +80,23 @@ ClMaxResult find_cl_max(const viscous::ViscousSolver& solver) {
     if (!r.converged && done.empty() && !lead_in) {
       lead_in = solver.solve_alpha(0.0, nullptr);
       if (lead_in->converged) r = solver.solve_alpha(alpha, &lead_in->state);
+    }
+    if (r.converged && done.size() >= 2) {
+      // A lift above the line through the last two points by more than kLiftJumpCheck may be
+      // another solution branch (near stall a long Newton path, or the cold fallback, can end on
+      // one), which would pass for lift the section does not have: the step is made again by
+      // checked sub-steps, and a jump they do not find again counts as a failed point. A jump
+      // downward needs no check: it ends the march, and the refinement brackets the peak before it.
+      const viscous::ViscousResult& b = done[done.size() - 2];
+      const viscous::LiftPoint before_last{b.alpha, b.cl, true};
+      if (viscous::lift_jump(before_last, done.back(), r) > viscous::kLiftJumpCheck) {
+        viscous::ViscousResult anchor = done.back();
+        viscous::LiftPoint before = before_last;
+        r = viscous::sub_step_march(
+            [&solver](double a, const viscous::ViscousState* w) { return solver.solve_from(a, w); },
+            alpha, anchor, before, nullptr);
+        r.alpha = alpha;
+      }
     }
     if (!r.converged) {
       if (++failures >= 2 && done.size() >= 2) break;

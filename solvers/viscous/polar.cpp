@@ -12,12 +12,6 @@
 namespace fulmar::viscous {
 namespace {
 
-// A converged angle of a march (deg) and its lift; valid false: none.
-struct LiftPoint {
-  double alpha = 0.0, cl = 0.0;
-  bool valid = false;
-};
-
 void require(bool ok, const char* field, double value, const std::string& rule) {
   if (ok) return;
   std::ostringstream msg;
@@ -309,14 +303,46 @@ int refine_cl_max(const std::vector<ViscousResult>& known, const PointSolver& so
   if (k <= 0 || k + 1 >= static_cast<int>(samples.size())) return 0;
 
   int solves = 0;
+  const PointSolver counted = [&](double alpha, const ViscousState* warm) {
+    ++solves;
+    return solve(alpha, warm);
+  };
   double best_alpha = samples[k].alpha, best_cl = samples[k].cl;
+  // The parabola through the bracket's three samples: a refined sample more than
+  // kLiftJumpCheck above it may have jumped to another solution (NACA 0015 at Re 2e5: from 1.12
+  // at 16.5 deg to 1.34 at 17.06, and the search then climbed that branch to 1.42), so it is
+  // made again by checked sub-steps from its nearest sample. The bulge of a real peak above
+  // the parabola was at most 0.022 over 2-deg brackets (NACA 0009 at Re 1e6).
+  const Sample p0 = samples[k - 1], p1 = samples[k], p2 = samples[k + 1];
+  auto parabola = [&](double x) {
+    return p0.cl * (x - p1.alpha) * (x - p2.alpha) /
+               ((p0.alpha - p1.alpha) * (p0.alpha - p2.alpha)) +
+           p1.cl * (x - p0.alpha) * (x - p2.alpha) /
+               ((p1.alpha - p0.alpha) * (p1.alpha - p2.alpha)) +
+           p2.cl * (x - p0.alpha) * (x - p1.alpha) /
+               ((p2.alpha - p0.alpha) * (p2.alpha - p1.alpha));
+  };
   // cl at `alpha`, warm-started from the nearest converged sample; -inf when it fails.
   auto cl_at = [&](double alpha) {
     const Sample* near = nullptr;
     for (const Sample& s : samples)
       if (!near || std::abs(s.alpha - alpha) < std::abs(near->alpha - alpha)) near = &s;
-    ++solves;
-    ViscousResult r = solve(alpha, near ? near->state : nullptr);
+    ViscousResult r = counted(alpha, near ? near->state : nullptr);
+    r.alpha = alpha;
+    if (r.converged && near && r.cl > parabola(alpha) + kLiftJumpCheck) {
+      ViscousResult anchor;
+      anchor.converged = true;
+      anchor.alpha = near->alpha;
+      anchor.cl = near->cl;
+      anchor.state = *near->state;
+      LiftPoint before;  // the sample next to `near` on the far side from alpha
+      for (const Sample& s : samples)
+        if ((s.alpha - near->alpha) * (alpha - near->alpha) < 0.0 &&
+            (!before.valid ||
+             std::abs(s.alpha - near->alpha) < std::abs(before.alpha - near->alpha)))
+          before = {s.alpha, s.cl, true};
+      r = sub_step_march(counted, alpha, anchor, before, nullptr);
+    }
     if (!r.converged) return -std::numeric_limits<double>::infinity();
     if (made.size() == made.capacity()) return r.cl;  // keep the states' addresses stable
     made.push_back(std::move(r));
@@ -358,6 +384,46 @@ int refine_cl_max(const std::vector<ViscousResult>& known, const PointSolver& so
   return solves;
 }
 
+double lift_jump(const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r) {
+  if (!before.valid || !r.converged || before.alpha == anchor.alpha) return 0.0;
+  const double slope = (anchor.cl - before.cl) / (anchor.alpha - before.alpha);
+  return r.cl - (anchor.cl + slope * (r.alpha - anchor.alpha));
+}
+
+ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousResult& anchor,
+                             LiftPoint& before, std::vector<ViscousResult>* sub_steps) {
+  const double dir = target > anchor.alpha ? 1.0 : -1.0;
+  ViscousResult cur = anchor;
+  LiftPoint prior = before;
+  double h = 0.5 * (target - anchor.alpha);
+  ViscousResult t;
+  t.reason = "sub-steps from " + fmt(anchor.alpha) + " deg did not reach " + fmt(target) + " deg";
+  while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
+    double a = cur.alpha + h;
+    if ((target - a) * dir < 1e-9) a = target;
+    ViscousResult u = solve(a, &cur.state);
+    u.alpha = a;
+    const bool smallest = std::abs(0.5 * h) < kMinSubStep * (1.0 - 1e-9);
+    if (!u.converged || (!smallest && std::abs(lift_jump(prior, cur, u)) > kLiftJumpCheck)) {
+      h *= 0.5;
+      continue;
+    }
+    if (a == target) {
+      t = std::move(u);
+      break;
+    }
+    if (sub_steps) sub_steps->push_back(u);
+    prior = {cur.alpha, cur.cl, true};
+    cur = std::move(u);
+  }
+  if (cur.alpha != anchor.alpha) {
+    before = prior;
+    anchor = std::move(cur);
+  }
+  if (!t.converged) t.alpha = target;
+  return t;
+}
+
 Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarOptions& options) {
   const std::vector<double> grid = options.angles();
   const int n = static_cast<int>(grid.size());
@@ -373,51 +439,17 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
     ++polar.solves;
     return solve(alpha, warm);
   };
-  // The lift the line through the last two converged angles of a march predicts at `alpha`
-  // (before.valid false: no prediction). A converged step whose lift misses it by more than
-  // kLiftJumpCheck may have left the branch the march follows (a long Newton path can end on
-  // another solution of the coupled equations near stall, where the boundary-layer equations
-  // have several), so it is checked by halved sub-steps.
-  auto jumped = [](const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r) {
-    if (!before.valid || !r.converged || before.alpha == anchor.alpha) return false;
-    const double slope = (anchor.cl - before.cl) / (anchor.alpha - before.alpha);
-    return std::abs(r.cl - (anchor.cl + slope * (r.alpha - anchor.alpha))) > kLiftJumpCheck;
-  };
   // The result at `target` from the last converged result `anchor` (null: none; `before`: the
-  // converged angle before it in the march): warm; when that fails or jumped, and with
-  // `sub_step`, halved sub-steps from the anchor (each one checked in the same way, down to
-  // kMinSubStep, where any converged one is taken); then the jumped warm result if it
-  // converged; then cold. A converged sub-step short of the target replaces the anchor (and
-  // `before`), so the march goes on from the nearest converged state.
+  // converged angle before it in the march): warm; when that fails or jumps (lift_jump), and with
+  // `sub_step`, the sub-step march; then the jumped warm result if it converged; then cold.
   auto advance = [&](ViscousResult* anchor, LiftPoint* before, double target, bool sub_step) {
     if (!anchor) return call(target, nullptr);
     ViscousResult r = call(target, &anchor->state);
     r.alpha = target;
-    if (r.converged && !jumped(*before, *anchor, r)) return r;
+    if (r.converged && std::abs(lift_jump(*before, *anchor, r)) <= kLiftJumpCheck) return r;
     if (sub_step) {
-      const double dir = target > anchor->alpha ? 1.0 : -1.0;
-      ViscousResult cur = *anchor;
-      LiftPoint prior = *before;
-      double h = 0.5 * (target - anchor->alpha);
-      while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
-        double a = cur.alpha + h;
-        if ((target - a) * dir < 1e-9) a = target;
-        ViscousResult t = call(a, &cur.state);
-        t.alpha = a;
-        const bool smallest = std::abs(0.5 * h) < kMinSubStep * (1.0 - 1e-9);
-        if (!t.converged || (!smallest && jumped(prior, cur, t))) {
-          h *= 0.5;
-          continue;
-        }
-        if (a == target) return t;
-        sub_steps.push_back(t);
-        prior = {cur.alpha, cur.cl, true};
-        cur = std::move(t);
-      }
-      if (cur.alpha != anchor->alpha) {
-        *before = prior;
-        *anchor = std::move(cur);
-      }
+      ViscousResult t = sub_step_march(call, target, *anchor, *before, &sub_steps);
+      if (t.converged) return t;
     }
     if (r.converged) return r;
     ViscousResult cold = call(target, nullptr);

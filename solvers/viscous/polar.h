@@ -102,6 +102,27 @@ struct Polar {
 // ViscousSolver::solve_alpha in production; a stand-in in tests.
 using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousState* warm)>;
 
+// A converged angle of a continuation (deg) and its lift; valid false: none.
+struct LiftPoint {
+  double alpha = 0.0, cl = 0.0;
+  bool valid = false;
+};
+
+// How far the lift of the converged `r` lies above (+) or below (-) the line through the two
+// converged angles `before` and `anchor` of a march, at r.alpha; 0 when there is no line
+// (before.valid false, the same angle twice, or r not converged).
+double lift_jump(const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r);
+
+// Continuation by halved sub-steps from the converged `anchor` to `target` (deg): the first step
+// is half the interval; a step that fails, or converges with |lift_jump| > kLiftJumpCheck from
+// the last two angles reached (except at the smallest step, above kMinSubStep, where any
+// converged one is taken), is halved. Returns the result at `target`, or one with converged
+// false (and a reason) when it was not reached. The converged intermediate results are appended
+// to `sub_steps` (may be null), and `anchor` and `before` become the last two angles reached,
+// so a march can go on from there.
+ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousResult& anchor,
+                             LiftPoint& before, std::vector<ViscousResult>* sub_steps);
+
 // The polar of `solver` over options.angles(). Continuation: the first angle solved is the grid
 // angle nearest the inviscid zero-lift angle (cold; when the grid does not reach the zero-lift
 // angle, warm from a lead-in march from it in steps of at most alpha_step and 1 deg); from there
@@ -131,8 +152,10 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
 // Golden-section refinement of a bracketed lift maximum (summary.cl_max_bracketed) between the
 // converged grid neighbours of summary.alpha_cl_max, to a bracket narrower than
 // kClMaxRefineWidth. `known`: converged results (any order) to warm-start from (the nearest in
-// alpha is used). Updates cl_max, alpha_cl_max and note; leaves the summary as is when it is not
-// bracketed. Returns the number of solves made.
+// alpha is used); a sample more than kLiftJumpCheck above the parabola through the bracket's
+// three points is made again by sub_step_march from its nearest sample (it may have jumped to
+// another solution branch). Updates cl_max, alpha_cl_max and note; leaves the summary as is when
+// it is not bracketed. Returns the number of solves made.
 int refine_cl_max(const std::vector<ViscousResult>& known, const PointSolver& solve,
                   PolarSummary& summary);
 

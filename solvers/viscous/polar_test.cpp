@@ -407,6 +407,30 @@ TEST(SweepPolar, RefinesABracketedMaximum) {
   EXPECT_DOUBLE_EQ(sweep_polar(s.solver(), 0.0, o).summary.alpha_cl_max, 12.0);
 }
 
+// Refinement on a two-branch stand-in: cl = 1.2 - 0.01 (alpha - 16.6)^2, and above 16.8 deg a
+// warm start over more than 0.4 deg lands on a branch 0.3 higher (as NACA 0015 at Re 2e5 did
+// from 16.47 to 17.06 deg). The golden-section search samples 17.06 from 16.47; that sample is
+// far above the parabola through the bracket, so it is made again by checked sub-steps, which
+// stay on the first branch: cl_max is its peak, 1.2 at 16.6 deg (to the bracket width).
+TEST(RefineClMax, AJumpInsideTheBracketIsCheckedBySubSteps) {
+  const auto branch = [](double a) { return 1.2 - 0.01 * (a - 16.6) * (a - 16.6); };
+  const PointSolver solve = [&](double a, const ViscousState* w) {
+    const double from = w ? w->stations[0].c : a;
+    ViscousResult r =
+        point(a, branch(a) + (a > 16.8 && std::abs(a - from) > 0.4 ? 0.3 : 0.0), 0.01, 0.0);
+    r.state.stagnation_node = 0;
+    r.state.stations = {StationState{a, 1e-4, 2e-4, 1.0}};
+    return r;
+  };
+  std::vector<ViscousResult> known;
+  for (double a : {14.0, 16.0, 18.0}) known.push_back(solve(a, nullptr));
+  PolarSummary s = summarize_polar(known);
+  ASSERT_TRUE(s.cl_max_bracketed);
+  EXPECT_GT(refine_cl_max(known, solve, s), 0);
+  EXPECT_NEAR(s.cl_max, 1.2, 0.01 * kClMaxRefineWidth * kClMaxRefineWidth);
+  EXPECT_NEAR(s.alpha_cl_max, 16.6, kClMaxRefineWidth);
+}
+
 TEST(PolarOptions, ValidateNamesTheField) {
   auto message = [](PolarOptions o) {
     try {
