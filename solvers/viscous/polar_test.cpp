@@ -197,6 +197,15 @@ TEST(SummarizePolar, PostStallRiseIsNotTheMaximum) {
   EXPECT_NEAR(w.cl_max, 1.2, 1e-12);
 }
 
+// A converged stand-in result (cd 0.01, cm 0) whose state remembers its angle (in
+// stations[0].c), so a stand-in solver can see which state warm-started it.
+ViscousResult remembered_point(double alpha, double cl) {
+  ViscousResult r = point(alpha, cl, 0.01, 0.0);
+  r.state.stagnation_node = 0;
+  r.state.stations = {StationState{alpha, 1e-4, 2e-4, 1.0}};
+  return r;
+}
+
 // A stand-in point solver: cl, cd, cm given as functions of alpha; its state remembers the angle
 // it belongs to (in stations[0].c) so the tests can see which state warm-started a solve.
 struct StandIn {
@@ -206,12 +215,8 @@ struct StandIn {
 
   ViscousResult operator()(double alpha, const ViscousState* warm) {
     calls.emplace_back(alpha, warm ? warm->stations[0].c : NAN);
-    ViscousResult r = point(alpha, cl(alpha), 0.01, 0.0, converges(alpha, warm));
-    if (r.converged) {
-      r.state.stagnation_node = 0;
-      r.state.stations = {StationState{alpha, 1e-4, 2e-4, 1.0}};
-    }
-    return r;
+    if (!converges(alpha, warm)) return point(alpha, cl(alpha), 0.01, 0.0, false);
+    return remembered_point(alpha, cl(alpha));
   }
   PointSolver solver() {
     return [this](double a, const ViscousState* w) { return (*this)(a, w); };
@@ -326,10 +331,7 @@ TEST(SweepPolar, AJumpToAnotherBranchIsCheckedBySubSteps) {
     ++calls;
     const double from = w ? w->stations[0].c : a;
     const double cl = 0.1 * a + ((w && a > 4.0 && std::abs(a - from) > 0.6) ? 0.2 : 0.0);
-    ViscousResult r = point(a, cl, 0.01, 0.0);
-    r.state.stagnation_node = 0;
-    r.state.stations = {StationState{a, 1e-4, 2e-4, 1.0}};
-    return r;
+    return remembered_point(a, cl);
   };
   PolarOptions o = PolarOptions{};
   o.alpha_from = 0;
@@ -347,10 +349,7 @@ TEST(SweepPolar, AJumpToAnotherBranchIsCheckedBySubSteps) {
 // the same fall, and the points beyond it lie on the lower branch.
 TEST(SweepPolar, ARealLiftJumpIsKept) {
   const PointSolver solve = [](double a, const ViscousState*) {
-    ViscousResult r = point(a, 0.1 * a - (a > 6.2 ? 0.3 : 0.0), 0.01, 0.0);
-    r.state.stagnation_node = 0;
-    r.state.stations = {StationState{a, 1e-4, 2e-4, 1.0}};
-    return r;
+    return remembered_point(a, 0.1 * a - (a > 6.2 ? 0.3 : 0.0));
   };
   PolarOptions o = PolarOptions{};
   o.alpha_from = 0;
@@ -416,11 +415,7 @@ TEST(RefineClMax, AJumpInsideTheBracketIsCheckedBySubSteps) {
   const auto branch = [](double a) { return 1.2 - 0.01 * (a - 16.6) * (a - 16.6); };
   const PointSolver solve = [&](double a, const ViscousState* w) {
     const double from = w ? w->stations[0].c : a;
-    ViscousResult r =
-        point(a, branch(a) + (a > 16.8 && std::abs(a - from) > 0.4 ? 0.3 : 0.0), 0.01, 0.0);
-    r.state.stagnation_node = 0;
-    r.state.stations = {StationState{a, 1e-4, 2e-4, 1.0}};
-    return r;
+    return remembered_point(a, branch(a) + (a > 16.8 && std::abs(a - from) > 0.4 ? 0.3 : 0.0));
   };
   std::vector<ViscousResult> known;
   for (double a : {14.0, 16.0, 18.0}) known.push_back(solve(a, nullptr));
