@@ -197,6 +197,15 @@ TEST(SummarizePolar, PostStallRiseIsNotTheMaximum) {
   EXPECT_NEAR(w.cl_max, 1.2, 1e-12);
 }
 
+// Polar options for the angle grid from_deg..to_deg in step_deg steps, other options default.
+PolarOptions angle_grid(double from_deg, double to_deg, double step_deg) {
+  PolarOptions o;
+  o.alpha_from = from_deg;
+  o.alpha_to = to_deg;
+  o.alpha_step = step_deg;
+  return o;
+}
+
 // A converged stand-in result (cd 0.01, cm 0) whose state remembers its angle (in
 // stations[0].c), so a stand-in solver can see which state warm-started it.
 ViscousResult remembered_point(double alpha, double cl) {
@@ -333,9 +342,7 @@ TEST(SweepPolar, AJumpToAnotherBranchIsCheckedBySubSteps) {
     const double cl = 0.1 * a + ((w && a > 4.0 && std::abs(a - from) > 0.6) ? 0.2 : 0.0);
     return remembered_point(a, cl);
   };
-  PolarOptions o = PolarOptions{};
-  o.alpha_from = 0;
-  o.alpha_to = 8;
+  PolarOptions o = angle_grid(0, 8, 1);
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
@@ -351,9 +358,7 @@ TEST(SweepPolar, ARealLiftJumpIsKept) {
   const PointSolver solve = [](double a, const ViscousState*) {
     return remembered_point(a, 0.1 * a - (a > 6.2 ? 0.3 : 0.0));
   };
-  PolarOptions o = PolarOptions{};
-  o.alpha_from = 0;
-  o.alpha_to = 9;
+  PolarOptions o = angle_grid(0, 9, 1);
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
@@ -459,15 +464,6 @@ ViscousSolver section_solver(const std::string& naca, double re) {
   ViscousOptions vo;
   vo.reynolds = re;
   return ViscousSolver(panel_nodes(naca_section(naca), po), vo);
-}
-
-// Polar options for the angle grid from_deg..to_deg in step_deg steps, other options default.
-PolarOptions angle_grid(double from_deg, double to_deg, double step_deg) {
-  PolarOptions o;
-  o.alpha_from = from_deg;
-  o.alpha_to = to_deg;
-  o.alpha_step = step_deg;
-  return o;
 }
 
 // The number of converged points of a polar.
