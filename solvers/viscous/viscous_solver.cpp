@@ -15,16 +15,6 @@ namespace fulmar::viscous {
 namespace {
 
 constexpr double kDeg = std::numbers::pi / 180.0;
-constexpr int kFloorHalvings = 3;
-// Newton iterations a settled transition (CoupledSystem::settle_transition) gets to converge.
-constexpr int kSettleIterations = 8;
-
-void require(bool ok, const std::string& field, double value, const std::string& rule) {
-  if (ok) return;
-  std::ostringstream msg;
-  msg << "viscous option " << field << " = " << value << ": " << rule;
-  throw InputError(msg.str());
-}
 
 InviscidOptions inviscid_options(const ViscousOptions& o) {
   InviscidOptions io;
@@ -71,41 +61,6 @@ int stagnation_node(const Eigen::VectorXd& q, int n_surface, int le) {
 }
 
 }  // namespace
-
-void ViscousOptions::Validate() const {
-  require(reynolds >= 1e4 && reynolds <= 1e9, "reynolds", reynolds, "must be in [1e4, 1e9]");
-  require(mach >= 0.0 && mach <= 0.7, "mach", mach, "must be in [0, 0.7]");
-  require(n_crit >= 0.5 && n_crit <= 20.0, "n_crit", n_crit, "must be in [0.5, 20]");
-  require(trip_upper >= 0.0 && trip_upper <= 1.0, "trip_upper", trip_upper,
-          "must be an x/c in [0, 1]");
-  require(trip_lower >= 0.0 && trip_lower <= 1.0, "trip_lower", trip_lower,
-          "must be an x/c in [0, 1]");
-  require(max_iterations >= 1 && max_iterations <= 500, "max_iterations", max_iterations,
-          "must be in [1, 500]");
-  require(tolerance >= 1e-14 && tolerance <= 1e-3, "tolerance", tolerance,
-          "must be in [1e-14, 1e-3]");
-  require(wake_length >= 1.0 && wake_length <= 10.0, "wake_length", wake_length,
-          "must be in [1, 10] chords");
-}
-
-std::string to_string(SolveStatus status) {
-  switch (status) {
-    case SolveStatus::kConverged:
-      return "converged";
-    case SolveStatus::kNotConverged:
-      return "not_converged";
-    case SolveStatus::kFailed:
-      return "failed";
-  }
-  return "failed";
-}
-
-SolveStatus solve_status_from_string(const std::string& text) {
-  for (SolveStatus s : {SolveStatus::kConverged, SolveStatus::kNotConverged, SolveStatus::kFailed})
-    if (to_string(s) == text) return s;
-  throw InputError("solve status \"" + text +
-                   "\": must be one of converged, not_converged, failed");
-}
 
 nlohmann::json ViscousResult::to_json() const {
   nlohmann::json j;
@@ -716,13 +671,12 @@ class CoupledSystem {
   // the hysteresis band of assign_transition allows) is a second representation of a solution
   // whose transition point lies in the neighbouring interval, and not an equivalent one (the
   // station in between carries the wrong layer kind). Releases the hysteresis of such a side
-  // for the next assignment, at most kMaxSettles times per solve, so that the solve goes on to
+  // for the next assignment, at most NewtonOptions::max_settles times per solve, so that the solve goes on to
   // the representation with w in [0, 1]: one solution whatever the path (warm start, angle
   // step, nearby shape).
-  static constexpr int kMaxSettles = 2;
   static constexpr double kSettleSlack = 1e-6;
   bool outside_interval(int side) const {
-    if (transition_interval_[side] < 1 || settles_ >= kMaxSettles) return false;
+    if (transition_interval_[side] < 1 || settles_ >= opt_.newton.max_settles) return false;
     const double w = transition_weight_[side];
     return w < -kSettleSlack || w > 1.0 + kSettleSlack;
   }
@@ -1212,19 +1166,21 @@ class CoupledSystem {
         limited_by_ = std::string(what) + " at station " + std::to_string(i);
       }
     };
+    const NewtonOptions& nw = opt_.newton;
     for (int i = 0; i < n; ++i) {
-      limit(step_(n + i), 0.5 * th_(i), "theta", i);
-      // m relative to itself, but not below a tenth of theta (m ~ 0 at the stagnation point).
-      limit(step_(2 * n + i), 0.5 * std::abs(mu_(i)) + 0.05 * th_(i), "mass defect", i);
+      limit(step_(n + i), nw.theta_change * th_(i), "theta", i);
+      // m relative to itself, but not below a part of theta (m ~ 0 at the stagnation point).
+      limit(step_(2 * n + i), nw.mass_change * std::abs(mu_(i)) + nw.mass_change_theta * th_(i),
+            "mass defect", i);
       if (kinds_[i] == LayerKind::kLaminar)
-        limit(step_(i), 2.0, "amplification", i);
+        limit(step_(i), nw.amplification_change, "amplification", i);
       else
-        limit(step_(i), 0.5 * c_(i), "shear stress", i);
+        limit(step_(i), nw.shear_change * c_(i), "shear stress", i);
     }
     // Keep every H above the closures' floor (see boundary_layer.cpp) and every ue positive.
     const Eigen::VectorXd dmu = step_.segment(2 * n, n);
     const Eigen::VectorXd due = lay_.d * dmu;
-    // The shape-factor floor halves the step at most kFloorHalvings times; stations still below
+    // The shape-factor floor halves the step at most nw.floor_halvings times; stations still below
     // it after the step are then put on it (their delta* raised), so that one station near the
     // floor cannot freeze the whole solution.
     // Shape factors before the step: the floor (of delta* / theta) and H (of the layer's own
@@ -1235,7 +1191,7 @@ class CoupledSystem {
       h_before_[i] = (dstar - lay_.gap(i)) / th_(i);
     }
     bool floor_fix = false;
-    for (int k = 0; k < 20; ++k) {
+    for (int k = 0; k < nw.max_halvings; ++k) {
       bool sign_ok = true, floor_ok = true;
       for (int i = 0; i < n && sign_ok; ++i) {
         double u = ue_(i) + rlx * due(i);
@@ -1260,7 +1216,7 @@ class CoupledSystem {
         }
       }
       if (sign_ok && floor_ok) break;
-      if (sign_ok && k >= kFloorHalvings) {
+      if (sign_ok && k >= nw.floor_halvings) {
         floor_fix = true;
         break;
       }
@@ -1270,15 +1226,15 @@ class CoupledSystem {
     saved_th_ = th_;
     saved_mu_ = mu_;
     apply_step(rlx);
-    // After the step: a turbulent or wake station whose H - 1 fell below kShapeDropFraction of its
-    // value before the step is put back on that level (delta* raised), and with floor_fix every
+    // After the step: a turbulent or wake station whose H - 1 fell below nw.shape_drop_fraction of
+    // its value before the step is put back on that level (delta* raised), and with floor_fix every
     // station below its floor onto the floor.
     bool moved_mass = false;
     for (int i = 0; i < n; ++i) {
       if (first_station_side(i) >= 0) continue;
       double lo = floor_fix ? h_floor_[i] : 0.0;
       if (kinds_[i] != LayerKind::kLaminar)
-        lo = std::max(lo, 1.0 + kShapeDropFraction * (h_before_[i] - 1.0));
+        lo = std::max(lo, 1.0 + nw.shape_drop_fraction * (h_before_[i] - 1.0));
       const double u = dstar_speed(i);
       if ((mu_(i) / u - lay_.gap(i)) / th_(i) < lo) {
         mu_(i) = u * (lo * th_(i) + lay_.gap(i));
@@ -1289,8 +1245,8 @@ class CoupledSystem {
     return rlx;
   }
 
-  // How far the H - 1 of a turbulent or wake station may fall in one Newton step (as a fraction
-  // of itself).
+  // Why NewtonOptions::shape_drop_fraction (how far the H - 1 of a turbulent or wake station may
+  // fall in one Newton step, as a fraction of itself) is 0.3.
   // Behind a transition point that has moved upstream, the linearised transition interval can
   // ask a reattaching layer for a shape factor far below any turbulent state (NACA 0012, Re 6e6,
   // 6.5 -> 7 deg: H 2.25 -> 0.82 at the first turbulent station; the step the other limits let
@@ -1301,7 +1257,6 @@ class CoupledSystem {
   // Newton iterations including failed attempts 8741 -> 8037, cold starts alone 554 -> 572 of 740.
   // The response to the fraction is irregular: 0.5 gave 617 cold starts but lost NACA 23012 at
   // 10.5 deg cold and one polar point, 0.7 gave 575 and lost 13 cold starts of the cold-start test.
-  static constexpr double kShapeDropFraction = 0.3;
 
   // State = saved state + rlx * step, with the positivity floors.
   void apply_step(double rlx) {
@@ -1517,7 +1472,7 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
       sys.settle_transition();
       continue;
     }
-    if (settled_from && (it - settled_at > kSettleIterations || sys.transition_limited())) break;
+    if (settled_from && (it - settled_at > options_.newton.settle_iterations || sys.transition_limited())) break;
     // Give up early when the residual has stopped falling (a fallback start is cheaper); a
     // move of the transition interval raises it legitimately and restarts the count.
     const std::size_t h = res.residual_history.size();
@@ -1526,7 +1481,10 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
       moved_lower = sys.transition_interval(1);
       last_move = h - 1;
     }
-    if (h > last_move + 12 && r > 1e-3 && r > 0.5 * res.residual_history[h - 7]) break;
+    const NewtonOptions& nw = options_.newton;
+    if (h > last_move + static_cast<std::size_t>(nw.stall_iterations) && r > nw.stall_residual &&
+        r > nw.stall_ratio * res.residual_history[h - 1 - static_cast<std::size_t>(nw.stall_window)])
+      break;
     NewtonIteration rec;
     rec.residual = r;
     std::tie(rec.worst_station, rec.worst_equation) = sys.worst_residual();
