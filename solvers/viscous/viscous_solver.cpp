@@ -9,6 +9,7 @@
 #include <tuple>
 
 #include "common/error.h"
+#include "solvers/viscous/block_linear_solver.h"
 
 namespace fulmar::viscous {
 
@@ -33,8 +34,8 @@ double wake_gap(double h, double distance) {
   return h * (1.0 - t) * (1.0 - t) * (1.0 + 2.0 * t);
 }
 
-using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
-using BlockRows = Eigen::Matrix<double, 3, Eigen::Dynamic, Eigen::RowMajor>;
+using detail::BlockLinearSystem;
+using detail::RowMatrix;
 
 // Everything about one solve that depends on the angle and the stagnation node.
 struct Layout {
@@ -106,32 +107,16 @@ CouplingModel ViscousSolver::model_at(double alpha_deg) const {
 
 namespace {
 
-// The work arrays of a Newton step, kept from one solve to the next in each thread: the
-// largest (3 #stations by #stations + 1, about 0.8 MB at 160 panels) would otherwise be
-// allocated and returned to the system for every solve, and its first touch costs page faults.
-struct NewtonScratch {
-  // 3 by n + 1 each: a station's rows of [-r, G D], then of L^-1 of it (solve_newton)
-  std::vector<BlockRows> w_rows;
-  Eigen::MatrixXd cap_t;  // n by n: the capacitance matrix I + P W, transposed
-  Eigen::MatrixXf cap_f;  // cap_t in single precision
-  Eigen::PartialPivLU<Eigen::MatrixXf> cap_luf;
-  Eigen::VectorXf cap_bf, cap_xf;               // n: single-precision right-hand side, solution
-  Eigen::VectorXd cap_r;                        // n: residual of the refinement
-  Eigen::PartialPivLU<Eigen::MatrixXd> cap_lu;  // when single precision is not enough
-  Eigen::VectorXd dm, dm_solved, z;
-  BlockRows block_rhs;  // 3 by n + 1 (solve_newton)
-};
-NewtonScratch& newton_scratch() {
-  thread_local NewtonScratch scratch;
-  return scratch;
-}
-
 // The Newton system and state of one solve.
 class CoupledSystem {
  public:
   CoupledSystem(const InviscidSolver& inviscid, const CouplingModel& model,
                 const ViscousOptions& options, const FlowConditions& flow)
-      : inv_(inviscid), model_(model), opt_(options), flow_(flow) {
+      : inv_(inviscid),
+        model_(model),
+        opt_(options),
+        flow_(flow),
+        jac_(model.surface_nodes + model.wake_nodes) {
     lay_.n_surface = model.surface_nodes;
     lay_.n_wake = model.wake_nodes;
     lay_.n = lay_.n_surface + lay_.n_wake;
@@ -147,13 +132,6 @@ class CoupledSystem {
     for (int j = 0; j < lay_.n_wake; ++j)
       lay_.gap(lay_.n_surface + j) = wake_gap(te_gap_, lay_.s(lay_.n_surface + j));
     const int n3 = 3 * lay_.n;
-    g_count_.assign(static_cast<std::size_t>(n3), 0);
-    g_col_.assign(static_cast<std::size_t>(kSpeedTerms * n3), 0);
-    g_val_.assign(static_cast<std::size_t>(kSpeedTerms * n3), 0.0);
-    g_spill_.reserve(16);
-    blocks_.resize(static_cast<std::size_t>(kBlocks * lay_.n));
-    block_station_.assign(static_cast<std::size_t>(kBlocks * lay_.n), -1);
-    block_count_.assign(static_cast<std::size_t>(lay_.n), 0);
     res_.resize(n3);
     c_.resize(lay_.n);
     th_.resize(lay_.n);
@@ -671,9 +649,9 @@ class CoupledSystem {
   // the hysteresis band of assign_transition allows) is a second representation of a solution
   // whose transition point lies in the neighbouring interval, and not an equivalent one (the
   // station in between carries the wrong layer kind). Releases the hysteresis of such a side
-  // for the next assignment, at most NewtonOptions::max_settles times per solve, so that the solve goes on to
-  // the representation with w in [0, 1]: one solution whatever the path (warm start, angle
-  // step, nearby shape).
+  // for the next assignment, at most NewtonOptions::max_settles times per solve, so that the solve
+  // goes on to the representation with w in [0, 1]: one solution whatever the path (warm start,
+  // angle step, nearby shape).
   static constexpr double kSettleSlack = 1e-6;
   bool outside_interval(int side) const {
     if (transition_interval_[side] < 1 || settles_ >= opt_.newton.max_settles) return false;
@@ -701,7 +679,7 @@ class CoupledSystem {
   // delta* = m / ue and ue = ue_inv + D m; at a first station through first_speed).
   void add_row(int r, int i, double dc, double dth, double dds, double due) {
     const double u = dstar_speed(i);
-    Eigen::Matrix3d& b = block(r / 3, i);
+    Eigen::Matrix3d& b = jac_.block(r / 3, i);
     b(r % 3, 0) += dc;
     b(r % 3, 1) += dth;
     b(r % 3, 2) += dds / u;
@@ -710,60 +688,12 @@ class CoupledSystem {
       const double coef = due - dds * mu_(i) / (u * u);
       double d_uk = 0.0, d_uk1 = 0.0;
       first_speed(side, &d_uk, &d_uk1);
-      add_speed(r, lay_.stag, coef * d_uk);
-      add_speed(r, lay_.stag + 1, coef * d_uk1);
+      jac_.add_speed(r, lay_.stag, coef * d_uk);
+      jac_.add_speed(r, lay_.stag + 1, coef * d_uk1);
       return;
     }
     const double coef = due - (ue_(i) > kMinDstarSpeed ? dds * mu_(i) / (u * u) : 0.0);
-    add_speed(r, i, coef);
-  }
-
-  // Adds dR/d(ue_i) = coef to row r (through ue = ue_inv + D m). G is sparse: an equation sees
-  // the speeds of its interval's two stations and of the two nodes around the stagnation point,
-  // at most kSpeedTerms columns (anything beyond goes to g_spill_, not expected).
-  static constexpr int kSpeedTerms = 4;
-  void add_speed(int r, int i, double coef) {
-    const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
-    int& count = g_count_[static_cast<std::size_t>(r)];
-    for (int k = 0; k < count; ++k)
-      if (g_col_[base + k] == i) {
-        g_val_[base + k] += coef;
-        return;
-      }
-    if (count < kSpeedTerms) {
-      g_col_[base + count] = i;
-      g_val_[base + count] = coef;
-      ++count;
-      return;
-    }
-    g_spill_.push_back({r, i, coef});
-  }
-  struct SpeedTerm {
-    int row = 0, col = 0;
-    double value = 0.0;
-  };
-  // Calls f(row, column, value) for every entry of G.
-  template <class F>
-  void for_each_speed_term(F&& f) const {
-    for (std::size_t r = 0; r < g_count_.size(); ++r)
-      for (int k = 0; k < g_count_[r]; ++k)
-        f(static_cast<int>(r), g_col_[kSpeedTerms * r + k], g_val_[kSpeedTerms * r + k]);
-    for (const SpeedTerm& t : g_spill_) f(t.row, t.col, t.value);
-  }
-
-  static constexpr int kBlocks = 3;
-  // The L block of the equations of station `row` in the unknowns of station `col`.
-  Eigen::Matrix3d& block(int row, int col) {
-    int& count = block_count_[static_cast<std::size_t>(row)];
-    for (int k = 0; k < count; ++k)
-      if (block_station_[static_cast<std::size_t>(kBlocks * row + k)] == col)
-        return blocks_[static_cast<std::size_t>(kBlocks * row + k)];
-    // At most three (an interval's two stations; the trailing-edge merge's three).
-    const std::size_t k = static_cast<std::size_t>(kBlocks * row + std::min(count, kBlocks - 1));
-    count = std::min(count + 1, kBlocks);
-    block_station_[k] = col;
-    blocks_[k].setZero();
-    return blocks_[k];
+    jac_.add_speed(r, i, coef);
   }
 
   // Stations in marching order: upper side from the stagnation point, lower side, wake.
@@ -772,30 +702,6 @@ class CoupledSystem {
     for (int side = 0; side < 2; ++side)
       for (int i : side_nodes(side)) order.push_back(i);
     for (int j = 0; j < lay_.n_wake; ++j) order.push_back(lay_.n_surface + j);
-  }
-
-  // The inverse of a 3 by 3 block by Gaussian elimination with partial pivoting (non-finite
-  // entries when a pivot vanishes).
-  static Eigen::Matrix3d block_inverse(Eigen::Matrix3d a) {
-    Eigen::Matrix3d x = Eigen::Matrix3d::Identity();
-    for (int k = 0; k < 3; ++k) {
-      int best = k;
-      for (int i = k + 1; i < 3; ++i)
-        if (std::abs(a(i, k)) > std::abs(a(best, k))) best = i;
-      a.row(k).swap(a.row(best));
-      x.row(k).swap(x.row(best));
-      for (int i = k + 1; i < 3; ++i) {
-        const double f = a(i, k) / a(k, k);
-        if (f == 0.0) continue;
-        a.row(i) -= f * a.row(k);
-        x.row(i) -= f * x.row(k);
-      }
-    }
-    for (int k = 2; k >= 0; --k) {
-      for (int c = k + 1; c < 3; ++c) x.row(k) -= a(k, c) * x.row(c);
-      x.row(k) /= a(k, k);
-    }
-    return x;
   }
 
   // The Newton step for the current Jacobian and residuals into step_ (var-major: c, theta, m
@@ -810,220 +716,16 @@ class CoupledSystem {
   // the work stays in a few small buffers instead of a 3 #stations by #stations + 1 matrix
   // streamed through memory three times.
   bool solve_newton() {
-    const int n = lay_.n;
     march_order(order_);
-    step_.resize(3 * n);
-    cap_t_.resize(n, n);
-    dm_.resize(n);
-    a_inv_.resize(static_cast<std::size_t>(n));
-    bool singular = false;  // no elimination through L: the dense fallback below solves the step
-    // Where each station's rows are last needed (position in order_; -1: by none).
-    last_use_.assign(static_cast<std::size_t>(n), -1);
-    for (int pos = 0; pos < n; ++pos) {
-      const int s = order_[static_cast<std::size_t>(pos)];
-      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
-        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        if (j != s) last_use_[static_cast<std::size_t>(j)] = pos;
-      }
-    }
-    slot_of_.assign(static_cast<std::size_t>(n), -1);
-    free_slots_.clear();
-    int slots_used = 0;
-    for (int pos = 0; pos < n && !singular; ++pos) {
-      const int s = order_[static_cast<std::size_t>(pos)];
-      int slot;
-      if (!free_slots_.empty()) {
-        slot = free_slots_.back();
-        free_slots_.pop_back();
-      } else {
-        slot = slots_used++;
-        if (static_cast<int>(ws_.w_rows.size()) < slots_used) ws_.w_rows.emplace_back();
-        ws_.w_rows[static_cast<std::size_t>(slot)].resize(3, n + 1);
-      }
-      slot_of_[static_cast<std::size_t>(s)] = slot;
-      BlockRows& x = ws_.w_rows[static_cast<std::size_t>(slot)];
-      // The station's rows of [-r, G D] into b.
-      BlockRows& b = block_rhs_;
-      b.resize(3, n + 1);
-      for (int e = 0; e < 3; ++e) {
-        const int r = 3 * s + e;
-        b(e, 0) = -res_(r);
-        const std::size_t base = static_cast<std::size_t>(kSpeedTerms * r);
-        auto w = b.row(e).tail(n);
-        const double* g = &g_val_[base];
-        auto d_row = [&](int k) { return lay_.d.row(g_col_[base + static_cast<std::size_t>(k)]); };
-        // One pass over the row whatever the number of terms (kSpeedTerms).
-        static_assert(kSpeedTerms == 4);
-        switch (g_count_[static_cast<std::size_t>(r)]) {
-          case 0:
-            w.setZero();
-            break;
-          case 1:
-            w = g[0] * d_row(0);
-            break;
-          case 2:
-            w = g[0] * d_row(0) + g[1] * d_row(1);
-            break;
-          case 3:
-            w = g[0] * d_row(0) + g[1] * d_row(1) + g[2] * d_row(2);
-            break;
-          default:
-            w = g[0] * d_row(0) + g[1] * d_row(1) + g[2] * d_row(2) + g[3] * d_row(3);
-        }
-      }
-      for (const SpeedTerm& t : g_spill_)
-        if (t.row / 3 == s) b.row(t.row % 3).tail(n) += t.value * lay_.d.row(t.col);
-      // X_s = A^-1 (B_s - sum_k M_k X_k) over the off-diagonal blocks M_k.
-      const int count = block_count_[static_cast<std::size_t>(s)];
-      int self = -1;
-      for (int k = 0; k < count; ++k)
-        if (block_station_[static_cast<std::size_t>(kBlocks * s + k)] == s) self = k;
-      if (self < 0) {
-        singular = true;
-        break;
-      }
-      Eigen::Matrix3d& a_inv = a_inv_[static_cast<std::size_t>(s)];
-      a_inv = block_inverse(blocks_[static_cast<std::size_t>(kBlocks * s + self)]);
-      if (!a_inv.allFinite()) {
-        singular = true;
-        break;
-      }
-      for (int k = 0; k < count && !singular; ++k) {
-        if (k == self) continue;
-        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        // A block on a station not yet eliminated would mean L is not lower triangular in the
-        // marching order: not expected; the dense fallback solves such a system.
-        if (slot_of_[static_cast<std::size_t>(j)] < 0) {
-          singular = true;
-          break;
-        }
-        b.noalias() -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] *
-                       ws_.w_rows[static_cast<std::size_t>(slot_of_[j])];
-      }
-      if (singular) break;
-      x.noalias() = a_inv * b;
-      // The capacitance matrix is stored transposed (its columns are these rows, contiguous).
-      cap_t_.col(s) = x.row(2).tail(n).transpose();
-      dm_(s) = x(2, 0);
-      // Rows no station downstream needs any more free their buffers.
-      for (int k = 0; k < count; ++k) {
-        const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        if (j != s && last_use_[static_cast<std::size_t>(j)] == pos &&
-            slot_of_[static_cast<std::size_t>(j)] >= 0) {
-          free_slots_.push_back(slot_of_[static_cast<std::size_t>(j)]);
-          slot_of_[static_cast<std::size_t>(j)] = -1;
-        }
-      }
-      if (last_use_[static_cast<std::size_t>(s)] < 0) {
-        free_slots_.push_back(slot);
-        slot_of_[static_cast<std::size_t>(s)] = -1;
-      }
-    }
-    if (singular) {
-      step_.setConstant(NAN);
-    } else {
-      cap_t_.diagonal().array() += 1.0;
-      solve_capacitance();
-      // L dx = -r - G D dm, one column through the blocks.
-      due_scratch_.noalias() = lay_.d * dm_solved_;
-      z_ = -res_;
-      for_each_speed_term(
-          [&](int r, int col, double value) { z_(r) -= value * due_scratch_(col); });
-      for (int s : order_) {
-        const int count = block_count_[static_cast<std::size_t>(s)];
-        Eigen::Vector3d v = z_.segment<3>(3 * s);
-        for (int k = 0; k < count; ++k) {
-          const int j = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-          if (j != s)
-            v -= blocks_[static_cast<std::size_t>(kBlocks * s + k)] * z_.segment<3>(3 * j);
-        }
-        z_.segment<3>(3 * s) = a_inv_[static_cast<std::size_t>(s)] * v;
-      }
-      for (int i = 0; i < n; ++i) {
-        step_(i) = z_(3 * i);
-        step_(n + i) = z_(3 * i + 1);
-        step_(2 * n + i) = z_(3 * i + 2);
-      }
-    }
-    // The boundary-layer blocks alone become singular where the layer separates (with the edge
-    // velocity held, the equations cannot fix the layer there; only the coupling does), and the
-    // elimination through them then loses accuracy: check the step against the full system and
-    // fall back to a dense LU of it when it does not solve it.
-    const double scale = res_.cwiseAbs().maxCoeff();
-    if (!step_.allFinite() ||
-        (jacobian_times(step_) + res_).cwiseAbs().maxCoeff() > 1e-6 * scale + 1e-12) {
-      step_ = dense_jacobian().partialPivLu().solve(-res_);
-      ++dense_solves_;
-    }
-    return step_.allFinite();
-  }
-
-  // dm_solved_ = C^-1 dm_ for the capacitance matrix C (cap_t_ = C^T). C is factored in single
-  // precision, which takes about half the time of a double-precision LU (twice the numbers per
-  // vector instruction; this LU is the one O(n^3) part of a step), and the solution refined
-  // against the double matrix (O(n^2) per refinement) to max |C x - dm| <= kCapacitanceTolerance
-  // max |dm|, the accuracy of a double-precision LU. When kCapacitanceRefinements do not get
-  // there (C too ill-conditioned for single precision, or out of its range), C is factored in
-  // double precision (in bench_polar's 20 regression polars: 127 of 7926 steps; 1.6
-  // refinements per step on average, and the same converged solutions as a double LU).
-  static constexpr int kCapacitanceRefinements = 4;
-  static constexpr double kCapacitanceTolerance = 1e-12;
-  void solve_capacitance() {
-    ws_.cap_f = cap_t_.cast<float>();
-    ws_.cap_luf.compute(ws_.cap_f);
-    ws_.cap_bf = dm_.cast<float>();
-    ws_.cap_xf = ws_.cap_luf.transpose().solve(ws_.cap_bf);
-    dm_solved_ = ws_.cap_xf.cast<double>();
-    const double target = kCapacitanceTolerance * dm_.cwiseAbs().maxCoeff();
-    for (int k = 0;; ++k) {
-      ws_.cap_r = dm_;
-      ws_.cap_r.noalias() -= cap_t_.transpose() * dm_solved_;
-      if (ws_.cap_r.cwiseAbs().maxCoeff() <= target) return;
-      if (k == kCapacitanceRefinements) break;
-      ws_.cap_bf = ws_.cap_r.cast<float>();
-      ws_.cap_xf = ws_.cap_luf.transpose().solve(ws_.cap_bf);
-      dm_solved_ += ws_.cap_xf.cast<double>();
-    }
-    cap_lu_.compute(cap_t_);
-    dm_solved_ = cap_lu_.transpose().solve(dm_);
-  }
-
-  // (L + G D P) v for a var-major vector v, without forming the matrix.
-  const Eigen::VectorXd& jacobian_times(const Eigen::VectorXd& v) const {
-    const int n = lay_.n;
-    due_scratch_.noalias() = lay_.d * v.segment(2 * n, n);
-    jv_.setZero(3 * n);
-    for_each_speed_term([&](int r, int col, double value) { jv_(r) += value * due_scratch_(col); });
-    for (int s = 0; s < n; ++s)
-      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
-        const int c = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        const Eigen::Vector3d x(v(c), v(n + c), v(2 * n + c));
-        jv_.segment<3>(3 * s) += blocks_[static_cast<std::size_t>(kBlocks * s + k)] * x;
-      }
-    return jv_;
+    return jac_.solve(lay_.d, order_, res_, step_);
   }
 
   // The dense Jacobian L + G D P (var-major columns), for the consistency test.
-  Eigen::MatrixXd dense_jacobian() const {
-    const int n = lay_.n;
-    Eigen::MatrixXd j = Eigen::MatrixXd::Zero(3 * n, 3 * n);
-    for (int s = 0; s < n; ++s)
-      for (int k = 0; k < block_count_[static_cast<std::size_t>(s)]; ++k) {
-        const int c = block_station_[static_cast<std::size_t>(kBlocks * s + k)];
-        const Eigen::Matrix3d& b = blocks_[static_cast<std::size_t>(kBlocks * s + k)];
-        for (int e = 0; e < 3; ++e)
-          for (int v = 0; v < 3; ++v) j(3 * s + e, v * n + c) += b(e, v);
-      }
-    for_each_speed_term(
-        [&](int r, int col, double value) { j.row(r).tail(n) += value * lay_.d.row(col); });
-    return j;
-  }
+  Eigen::MatrixXd dense_jacobian() const { return jac_.dense(lay_.d); }
 
   // Residuals and Jacobian at the current state; returns max |residual|.
   double assemble() {
-    std::fill(g_count_.begin(), g_count_.end(), 0);
-    g_spill_.clear();
-    std::fill(block_count_.begin(), block_count_.end(), 0);
+    jac_.clear();
     closure_kind_.assign(static_cast<std::size_t>(lay_.n), -1);
     closure_.resize(static_cast<std::size_t>(lay_.n));
     res_.setZero();
@@ -1044,8 +746,8 @@ class CoupledSystem {
           add_row(r, i, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
           // Through the stagnation point's position.
           const double dx = lin.j(e, 0);
-          add_speed(r, lay_.stag, dx * d_uk);
-          add_speed(r, lay_.stag + 1, dx * d_uk1);
+          jac_.add_speed(r, lay_.stag, dx * d_uk);
+          jac_.add_speed(r, lay_.stag + 1, dx * d_uk1);
         }
       }
       for (std::size_t p = 1; p < idx.size(); ++p) {
@@ -1081,8 +783,8 @@ class CoupledSystem {
           add_row(r, i1, lin.j(e, 0), lin.j(e, 1), lin.j(e, 2), lin.j(e, 3));
           add_row(r, i2, lin.j(e, 4), lin.j(e, 5), lin.j(e, 6), lin.j(e, 7));
           if (first) {
-            add_speed(r, lay_.stag, d_origin(e) * d_uk);
-            add_speed(r, lay_.stag + 1, d_origin(e) * d_uk1);
+            jac_.add_speed(r, lay_.stag, d_origin(e) * d_uk);
+            jac_.add_speed(r, lay_.stag + 1, d_origin(e) * d_uk1);
           }
         }
       }
@@ -1323,26 +1025,10 @@ class CoupledSystem {
   Layout lay_;
   int le_ = 0;
   double te_gap_ = 0.0;
-  // G = d(residual)/d(ue), 3 n by n, sparse: per row up to kSpeedTerms (column, value).
-  std::vector<int> g_count_, g_col_;
-  std::vector<double> g_val_;
-  std::vector<SpeedTerm> g_spill_;
-  std::vector<Eigen::Matrix3d> blocks_;           // up to 3 L blocks per station
-  std::vector<int> block_station_, block_count_;  // column station of each block; blocks per row
-  std::vector<int> order_;                        // marching order of the stations
-  std::vector<Eigen::Matrix3d> a_inv_;            // inverse diagonal blocks of L (solve_newton)
-  std::vector<int> last_use_, slot_of_, free_slots_;  // solve_newton's row buffers
-  std::vector<Closure<StationDual>> closure_;         // per station, this assembly's (closure_of)
-  std::vector<int> closure_kind_;                     // the LayerKind of closure_, -1: none yet
-  // The Newton step's work arrays (NewtonScratch, one per thread): a copy of the system (the
-  // settled state kept for the outputs) shares them and never takes a step.
-  NewtonScratch& ws_ = newton_scratch();
-  Eigen::MatrixXd& cap_t_ = ws_.cap_t;
-  Eigen::PartialPivLU<Eigen::MatrixXd>& cap_lu_ = ws_.cap_lu;
-  Eigen::VectorXd &dm_ = ws_.dm, &dm_solved_ = ws_.dm_solved, &z_ = ws_.z;
-  BlockRows& block_rhs_ = ws_.block_rhs;
-  mutable Eigen::VectorXd due_scratch_, jv_;  // scratch of jacobian_times
-  int dense_solves_ = 0;                      // Newton steps that needed the dense fallback
+  BlockLinearSystem jac_;                      // the Newton Jacobian of the last assembly
+  std::vector<int> order_;                     // marching order of the stations
+  std::vector<Closure<StationDual>> closure_;  // per station, this assembly's (closure_of)
+  std::vector<int> closure_kind_;              // the LayerKind of closure_, -1: none yet
   Eigen::VectorXd res_, step_;
   Eigen::VectorXd c_, th_, mu_, ue_;
   std::vector<LayerKind> kinds_;
@@ -1472,7 +1158,9 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
       sys.settle_transition();
       continue;
     }
-    if (settled_from && (it - settled_at > options_.newton.settle_iterations || sys.transition_limited())) break;
+    if (settled_from &&
+        (it - settled_at > options_.newton.settle_iterations || sys.transition_limited()))
+      break;
     // Give up early when the residual has stopped falling (a fallback start is cheaper); a
     // move of the transition interval raises it legitimately and restarts the count.
     const std::size_t h = res.residual_history.size();
@@ -1483,7 +1171,8 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
     }
     const NewtonOptions& nw = options_.newton;
     if (h > last_move + static_cast<std::size_t>(nw.stall_iterations) && r > nw.stall_residual &&
-        r > nw.stall_ratio * res.residual_history[h - 1 - static_cast<std::size_t>(nw.stall_window)])
+        r > nw.stall_ratio *
+                res.residual_history[h - 1 - static_cast<std::size_t>(nw.stall_window)])
       break;
     NewtonIteration rec;
     rec.residual = r;
