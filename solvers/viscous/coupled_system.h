@@ -100,6 +100,7 @@ class CoupledSystem {
     double t = 0.5, sum = 1.0;       // modelled fraction and u_k + u_k+1
     double d_uk = 0.0, d_uk1 = 0.0;  // dt / du_k, dt / du_k+1
   };
+  // The fraction for `side` from the current speeds (after a start) or the cold-start speeds.
   StagnationFraction stagnation_fraction(int side) const;
   // The same for the speeds a, b at the nodes stag and stag + 1.
   static StagnationFraction stagnation_fraction(int side, double a, double b);
@@ -128,8 +129,12 @@ class CoupledSystem {
   static constexpr double kMinDstarSpeed = 1e-4;
   double dstar_speed(int i) const;
 
+  // The state of station i (theta, delta* in chords; ue, on free-stream speed, as the boundary
+  // layer sees it: first_speed at a side's first station).
   StationState station(int i) const;
 
+  // The state the two trailing-edge stations hand to the wake: thetas and delta*s (with the
+  // trailing-edge gap) added, sqrt(Ctau) theta-weighted, the mean speed.
   StationState merged_state() const;
 
   // Station with ue from the current solution if set, else inviscid.
@@ -141,6 +146,8 @@ class CoupledSystem {
 
   // Before each Newton step: move the stagnation node to where the speed changes sign (the BL
   // positions of both sides shift with it), then decide the layer kinds.
+  // At most this many one-node moves of the stagnation node per iteration (a bound on the loop).
+  static constexpr int kMaxStagnationMoves = 40;
   void prepare_iteration();
 
   // turbulent_c and its derivatives with respect to the station's (c, theta, delta*, ue).
@@ -176,10 +183,14 @@ class CoupledSystem {
   // goes on to the representation with w in [0, 1]: one solution whatever the path (warm start,
   // angle step, nearby shape).
   static constexpr double kSettleSlack = 1e-6;
+  // Whether a side's transition point lies outside its interval by more than kSettleSlack and
+  // may still be settled.
   bool outside_interval(int side) const;
   bool needs_settling() const { return outside_interval(0) || outside_interval(1); }
+  // Releases the hysteresis of the sides outside their interval (counts one settle).
   void settle_transition();
 
+  // Arc length from the stagnation point of BL position p of a side (idx: side_nodes(side)).
   double xi_of(int side, const std::vector<int>& idx, int p) const;
 
   // The Jacobian is kept in two parts, J = L + G D P (see block_linear_solver.h): L holds each

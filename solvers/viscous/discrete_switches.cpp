@@ -48,7 +48,7 @@ bool CoupledSystem::relocate_stagnation() {
 
 void CoupledSystem::prepare_iteration() {
   bool moved = false;
-  for (int move = 0; move < 40 && relocate_stagnation(); ++move) moved = true;
+  for (int move = 0; move < kMaxStagnationMoves && relocate_stagnation(); ++move) moved = true;
   if (moved) take_transition_from_kinds();
   assign_transition();
 }

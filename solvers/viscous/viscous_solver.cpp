@@ -17,6 +17,22 @@ namespace fulmar::viscous {
 namespace {
 
 constexpr double kDeg = std::numbers::pi / 180.0;
+// Angles of attack beyond this (deg, either sign) are refused: no attached or stalled solution
+// of the coupled model is sought there.
+constexpr double kMaxAngle = 60.0;
+// solve_alpha's continuation: the remaining angle step is halved at each failure, at most
+// kContinuationLevels failures and kContinuationTries sub-step solves in all.
+constexpr int kContinuationLevels = 6;
+constexpr int kContinuationTries = 16;
+// solve_cl: stop at |cl - target| < kClTolerance (the documented rule); the second angle is
+// kClFirstStep (deg) above the first, each secant step at most kClMaxStep (deg), at most
+// kClIterations secant steps.
+constexpr double kClTolerance = 1e-5;
+constexpr double kClFirstStep = 0.5;
+constexpr double kClMaxStep = 2.0;
+constexpr int kClIterations = 20;
+// jacobian_check: the relative step of the central differences.
+constexpr double kDifferenceStep = 1e-6;
 
 InviscidOptions inviscid_options(const ViscousOptions& o) {
   InviscidOptions io;
@@ -86,13 +102,13 @@ JacobianCheck ViscousSolver::jacobian_check(double alpha_deg, int newton_steps,
   }
   JacobianCheck out;
   out.analytic = sys.jacobian();
-  out.difference = sys.difference_jacobian(1e-6);
+  out.difference = sys.difference_jacobian(kDifferenceStep);
   return out;
 }
 
 ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* warm_start) const {
   const bool warm = warm_start && warm_start->valid();
-  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > 60.0)
+  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > kMaxAngle)
     return solve_from(alpha_deg, nullptr);
   // The warm and the cold attempt share the coupling model at this angle.
   const CouplingModel model = model_at(alpha_deg);
@@ -116,7 +132,8 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
   // converges, then go on from there.
   ViscousState from = *warm_start;
   double step = alpha_deg - from.alpha;
-  for (int level = 0, tries = 0; level < 6 && tries < 16; ++tries) {
+  for (int level = 0, tries = 0; level < kContinuationLevels && tries < kContinuationTries;
+       ++tries) {
     step *= 0.5;
     const double target = from.alpha + step;
     ViscousResult r = solve_from(target, &from);
@@ -137,7 +154,7 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
 ViscousResult ViscousSolver::solve_from(double alpha_deg, const ViscousState* warm_start) const {
   ViscousResult res;
   res.alpha = alpha_deg;
-  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > 60.0) {
+  if (!std::isfinite(alpha_deg) || std::abs(alpha_deg) > kMaxAngle) {
     res.status = SolveStatus::kFailed;
     res.reason = "angle of attack must be finite and within +-60 deg";
     return res;
@@ -174,7 +191,8 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
         break;
       }
       // This converged state stands if the settled representation does not converge within
-      // kSettleIterations (when the move starts the transition running, it does not).
+      // NewtonOptions::settle_iterations (when the move starts the transition running, it does
+      // not).
       settled_from.emplace(sys);
       settled_residual = r;
       settled_at = it;
@@ -259,14 +277,14 @@ ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm
                 std::to_string(inv.alpha / kDeg) + " deg; last: " + r0.reason;
     return r0;
   }
-  double a1 = a0 + 0.5;
+  double a1 = a0 + kClFirstStep;
   ViscousResult r1 = solve_alpha(a1, &r0.state);
-  for (int k = 0; k < 20; ++k) {
+  for (int k = 0; k < kClIterations; ++k) {
     if (!r1.converged) return r1;
-    if (std::abs(r1.cl - cl_target) < 1e-5) return r1;
+    if (std::abs(r1.cl - cl_target) < kClTolerance) return r1;
     const double slope = (r1.cl - r0.cl) / (a1 - a0);
     if (!(std::abs(slope) > 1e-4)) break;
-    const double a2 = a1 + std::clamp((cl_target - r1.cl) / slope, -2.0, 2.0);
+    const double a2 = a1 + std::clamp((cl_target - r1.cl) / slope, -kClMaxStep, kClMaxStep);
     r0 = std::move(r1);
     a0 = a1;
     a1 = a2;
