@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
 #include <sstream>
 
 #include "common/error.h"
@@ -137,67 +136,57 @@ class ViscousEvaluator final : public SectionEvaluator {
     return "viscous-inviscid (linear-vorticity panels, integral boundary layer, e^N transition)";
   }
 
+  // No catch here: the solver reports flow failures as a status, and what it throws is an
+  // input error (InputError: bad nodes or options) that must reach the user, not pass for a
+  // failed analysis.
   SectionAnalysis analyse(const Section& section, const AnalysisRequest& request) const override {
     SectionAnalysis out;
     const Points nodes = nodes_for(section, request.panels);
     for (const TargetPoint& t : request.points) {
-      try {
-        const viscous::ViscousSolver solver(nodes, options_for(t.flow));
-        out.points.push_back(point_from(solver.solve_cl(t.cl)));
-      } catch (const std::exception& e) {
-        PointResult p;
-        p.reason = e.what();
-        out.points.push_back(p);
-      }
+      const viscous::ViscousSolver solver(nodes, options_for(t.flow));
+      out.points.push_back(point_from(solver.solve_cl(t.cl)));
     }
     if (request.cl_max_at) {
-      try {
-        const viscous::ViscousSolver solver(nodes, options_for(*request.cl_max_at));
-        out.cl_max = find_cl_max(solver);
-      } catch (const std::exception& e) {
-        out.cl_max.reason = e.what();
-      }
+      const viscous::ViscousSolver solver(nodes, options_for(*request.cl_max_at));
+      out.cl_max = find_cl_max(solver);
     }
     return out;
   }
 
+  // The polar as `fulmar polar` makes it (viscous::sweep_polar, without cl_max refinement).
   std::vector<PointResult> polar(const Section& section, const FlowCondition& flow,
                                  const std::vector<double>& alphas_deg, int panels) const override {
     std::vector<PointResult> out(alphas_deg.size());
-    try {
-      const viscous::ViscousSolver solver(nodes_for(section, panels), options_for(flow));
-      viscous::ViscousResult previous;
-      const viscous::ViscousState* warm = nullptr;
-      for (size_t i = 0; i < alphas_deg.size(); ++i) {
-        viscous::ViscousResult r = solver.solve_alpha(alphas_deg[i], warm);
-        out[i] = point_from(r);
-        if (r.converged) {
-          previous = std::move(r);
-          warm = &previous.state;
-        } else {
-          warm = nullptr;
-        }
-      }
-    } catch (const std::exception& e) {
-      for (auto& p : out) p.reason = e.what();
-    }
+    if (alphas_deg.empty()) return out;
+    viscous::PolarOptions o;
+    o.alpha_from = alphas_deg.front();
+    o.alpha_to = alphas_deg.back();
+    if (alphas_deg.size() > 1) o.alpha_step = alphas_deg[1] - alphas_deg[0];
+    o.refine_cl_max = false;
+    const std::vector<double> grid = o.angles();
+    bool uniform = grid.size() == alphas_deg.size();
+    for (std::size_t i = 0; uniform && i < grid.size(); ++i)
+      uniform = std::abs(grid[i] - alphas_deg[i]) <= 1e-9 * std::max(1.0, std::abs(grid[i]));
+    if (!uniform)
+      throw InputError("polar angles: not an increasing grid of equal steps from " +
+                       std::to_string(alphas_deg.front()) + " to " +
+                       std::to_string(alphas_deg.back()) + " deg");
+    const viscous::ViscousSolver solver(nodes_for(section, panels), options_for(flow));
+    const viscous::Polar p = viscous::sweep_polar(solver, o);
+    for (std::size_t i = 0; i < out.size(); ++i) out[i] = point_from(p.points[i]);
     return out;
   }
 
   Points pressure(const Section& section, const FlowCondition& flow, double cl,
                   int panels) const override {
-    try {
-      const Points nodes = nodes_for(section, panels);
-      const viscous::ViscousSolver solver(nodes, options_for(flow));
-      const viscous::ViscousResult r = solver.solve_cl(cl);
-      if (!r.converged || r.cp.size() != nodes.rows()) return {};
-      Points out(nodes.rows(), 2);
-      out.col(0) = nodes.col(0);
-      out.col(1) = r.cp;
-      return out;
-    } catch (const std::exception&) {
-      return {};
-    }
+    const Points nodes = nodes_for(section, panels);
+    const viscous::ViscousSolver solver(nodes, options_for(flow));
+    const viscous::ViscousResult r = solver.solve_cl(cl);
+    if (!r.converged || r.cp.size() != nodes.rows()) return {};
+    Points out(nodes.rows(), 2);
+    out.col(0) = nodes.col(0);
+    out.col(1) = r.cp;
+    return out;
   }
 };
 
