@@ -93,7 +93,8 @@ struct ContinuationOptions {
   // cold. false for a point solver that makes these fallbacks itself (ViscousSolver::solve_alpha).
   bool recover_failures = true;
   // Sub-steps also when the grid angle before failed (the last converged state then lies two or
-  // more steps back); false: a failure there goes straight to the cold start, a jump is kept.
+  // more steps back); false: a failure there goes straight to the cold start, and a jump is
+  // kept or counted as failed as keep_unconfirmed_jump says.
   bool sub_steps_after_failure = false;
   // A jump that the sub-steps do not reach again: kept as the point (true; a polar shows it,
   // converged) or counted as a failed angle (false; a lift maximum must not come from a branch
