@@ -20,6 +20,7 @@
 #include "optimize/driver.h"
 #include "optimize/section_problem.h"
 #include "optimize/svg_plot.h"
+#include "solvers/viscous/polar_csv.h"
 
 namespace fulmar::optimize {
 namespace {
@@ -103,22 +104,31 @@ struct SectionPolars {
   std::vector<std::vector<PointResult>> per_condition;
 };
 
+// The polar CSV of fulmar polar (solvers/viscous/polar_csv.h), one row per condition and angle.
 std::string polar_csv(const std::vector<PolarCondition>& conds, const SectionPolars& polars,
                       const std::string& section_name) {
-  std::ostringstream o;
-  o << "# fulmar polar of " << section_name << "\n"
-    << "condition,reynolds,mach,alpha_deg,cl,cd,cd_friction,cd_pressure,cm_quarter_chord,"
-       "transition_upper,transition_lower,converged\n";
-  for (size_t k = 0; k < conds.size(); ++k)
-    for (const auto& p : polars.per_condition[k])
-      o << csv_field(conds[k].name) << "," << g6(conds[k].flow.reynolds) << ","
-        << g6(conds[k].flow.mach) << "," << g6(p.alpha_deg) << "," << (p.converged ? g6(p.cl) : "")
-        << "," << (p.converged ? g6(p.cd) : "") << "," << (p.converged ? g6(p.cd_friction) : "")
-        << "," << (p.converged ? g6(p.cd_pressure) : "") << "," << (p.converged ? g6(p.cm) : "")
-        << "," << (p.converged ? g6(p.transition_upper) : "") << ","
-        << (p.converged ? g6(p.transition_lower) : "") << "," << (p.converged ? "true" : "false")
-        << "\n";
-  return o.str();
+  std::vector<viscous::PolarCsvRow> rows;
+  for (size_t k = 0; k < conds.size(); ++k) {
+    for (const auto& p : polars.per_condition[k]) {
+      viscous::PolarCsvRow r;
+      r.re = conds[k].flow.reynolds;
+      r.mach = conds[k].flow.mach;
+      r.alpha = p.alpha_deg;
+      r.cl = p.cl;
+      r.cd = p.cd;
+      r.cd_friction = p.cd_friction;
+      r.cd_pressure = p.cd_pressure;
+      r.cm = p.cm;
+      r.transition_upper = p.transition_upper;
+      r.transition_lower = p.transition_lower;
+      r.converged = p.converged;
+      r.iterations = p.iterations;
+      r.section = section_name;
+      r.condition = conds[k].name;
+      rows.push_back(r);
+    }
+  }
+  return viscous::polar_csv(rows);
 }
 
 std::string history_csv(const SearchResult& r, const std::vector<std::string>& names, double tol) {

@@ -23,6 +23,7 @@
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
 #include "solvers/viscous/polar.h"
+#include "solvers/viscous/polar_csv.h"
 
 namespace fulmar::app {
 namespace {
@@ -166,22 +167,17 @@ nlohmann::json polar_json(const ReynoldsPolar& p) {
           {"summary", p.polar.summary.to_json()}};
 }
 
-// The CSV: one row per point (all Reynolds numbers, in the order given); numbers of points with
-// converged = 0 are the last iterate, not a solution.
-std::string polar_csv(const std::vector<ReynoldsPolar>& polars) {
-  std::ostringstream csv;
-  csv.precision(10);
-  csv << "re,mach,alpha,cl,cd,cd_friction,cd_pressure,cm,transition_upper,transition_lower,"
-         "converged,iterations\n";
+// The CSV (solvers/viscous/polar_csv.h): one row per point (all Reynolds numbers, in the order
+// given); numbers of points with converged = 0 are the last iterate, not a solution.
+std::string polar_csv(const std::vector<ReynoldsPolar>& polars, const std::string& section_name) {
+  std::vector<viscous::PolarCsvRow> rows;
   for (const ReynoldsPolar& p : polars) {
     for (const viscous::ViscousResult& r : p.polar.points) {
-      csv << p.options.reynolds << ',' << p.options.mach << ',' << r.alpha << ',' << r.cl << ','
-          << r.cd << ',' << r.cd_friction << ',' << r.cd_pressure << ',' << r.cm << ','
-          << r.transition_upper << ',' << r.transition_lower << ',' << (r.converged ? 1 : 0) << ','
-          << r.iterations << '\n';
+      rows.push_back(viscous::polar_csv_row(r, p.options.reynolds, p.options.mach));
+      rows.back().section = section_name;
     }
   }
-  return csv.str();
+  return viscous::polar_csv(rows);
 }
 
 std::string summary_value(const nlohmann::json& v, const char* format) {
@@ -235,7 +231,8 @@ void run_viscous(const PolarArgs& args) {
                    "solution)\n";
     }
   }
-  if (!args.output_csv.empty()) write_file_atomically(args.output_csv, polar_csv(polars));
+  if (!args.output_csv.empty())
+    write_file_atomically(args.output_csv, polar_csv(polars, section.name));
 
   if (args.json) {
     nlohmann::json list = nlohmann::json::array();
