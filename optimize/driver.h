@@ -14,7 +14,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "optimize/case_file.h"
+#include "optimize/search_options.h"
 
 namespace fulmar::optimize {
 
