@@ -4,14 +4,17 @@
 #include <chrono>
 #include <cmath>
 #include <cstdio>
+#include <exception>
 #include <fstream>
 #include <limits>
 #include <map>
+#include <mutex>
 #include <nlopt.hpp>
 #include <ostream>
 #include <random>
 #include <sstream>
 #include <thread>
+#include <utility>
 
 #include "common/atomic_file.h"
 #include "common/error.h"
@@ -49,13 +52,24 @@ void parallel_for(int n, int threads, F&& f) {
     for (int i = 0; i < n; ++i) f(i);
     return;
   }
+  // An exception of a worker (an input or program error of the analysis) ends the other workers
+  // after their current item and is thrown again here, in the calling thread.
   std::atomic<int> next{0};
+  std::exception_ptr first_error;
+  std::mutex error_mutex;
   std::vector<std::thread> pool;
   for (int t = 0; t < threads; ++t)
     pool.emplace_back([&] {
-      for (int i = next++; i < n; i = next++) f(i);
+      try {
+        for (int i = next++; i < n; i = next++) f(i);
+      } catch (...) {  // carried to the calling thread, not swallowed
+        const std::lock_guard<std::mutex> lock(error_mutex);
+        if (!first_error) first_error = std::current_exception();
+        next = n;
+      }
     });
   for (auto& th : pool) th.join();
+  if (first_error) std::rethrow_exception(first_error);
 }
 
 class Search {
@@ -150,13 +164,15 @@ class Search {
   }
 
   Evaluation safe_evaluate(const std::vector<double>& x) const {
+    // A numerical failure is a status of the evaluation (AnalysisFailure, or ok = false from the
+    // evaluator); anything else thrown (InputError, a program error) ends the search.
     Evaluation e;
     try {
       e = p_.evaluate(x);
-    } catch (const std::exception& ex) {
+    } catch (const AnalysisFailure& ex) {
       e = Evaluation{};
       e.ok = false;
-      e.status = std::string("analysis threw: ") + ex.what();
+      e.status = std::string("analysis failed: ") + ex.what();
       e.objective = std::numeric_limits<double>::quiet_NaN();
     }
     e.x = x;
@@ -318,9 +334,23 @@ class Search {
     return design_.data();
   }
 
+  // NLopt turns an exception thrown in a callback into a bare "nlopt failure"; so an error of the
+  // analysis is kept here, NLopt is stopped, and run_local throws it again.
+  template <class F>
+  void guarded(F&& f) {
+    try {
+      f();
+    } catch (const nlopt::forced_stop&) {
+      throw;
+    } catch (...) {  // carried past NLopt and thrown again by run_local, not swallowed
+      pending_error_ = std::current_exception();
+      throw nlopt::forced_stop();
+    }
+  }
   static double objective_cb(unsigned n, const double* z, double* grad, void* data) {
     Search* s = static_cast<Search*>(data);
-    const double f = s->objective(n, s->design_of(n, z), grad);
+    double f = 0;
+    s->guarded([&] { f = s->objective(n, s->design_of(n, z), grad); });
     if (grad && s->scaled_)
       for (unsigned i = 0; i < n; ++i) grad[i] *= kGradientScale;
     return f;
@@ -328,7 +358,7 @@ class Search {
   static void constraints_cb(unsigned m, double* result, unsigned n, const double* z, double* grad,
                              void* data) {
     Search* s = static_cast<Search*>(data);
-    s->constraints(m, result, n, s->design_of(n, z), grad);
+    s->guarded([&] { s->constraints(m, result, n, s->design_of(n, z), grad); });
     if (grad && s->scaled_)
       for (unsigned k = 0; k < m * n; ++k) grad[k] *= kGradientScale;
   }
@@ -395,6 +425,7 @@ class Search {
           return false;
       }
     } catch (const nlopt::forced_stop&) {
+      if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (share_spent_ && stop_reason_.empty()) {
         share_spent_ = false;
         reason = "its share of the evaluation budget spent";
@@ -405,7 +436,12 @@ class Search {
     } catch (const nlopt::roundoff_limited&) {
       reason = "NLopt stopped: roundoff limited (no further progress possible)";
       return false;
-    } catch (const std::exception& ex) {
+    } catch (const std::invalid_argument& ex) {  // NLopt's NLOPT_INVALID_ARGS
+      if (!stop_reason_.empty()) throw StopSearch{};
+      reason = std::string("NLopt stopped: ") + ex.what();
+      return false;
+    } catch (const std::runtime_error& ex) {  // NLopt's NLOPT_FAILURE (callbacks' errors: above)
+      if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
       return false;
@@ -520,6 +556,7 @@ class Search {
   int replayed_ = 0;
   std::string stop_reason_;
   bool interrupted_ = false;
+  std::exception_ptr pending_error_;  // see guarded()
 };
 
 }  // namespace

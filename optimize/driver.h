@@ -9,6 +9,7 @@
 #include <filesystem>
 #include <functional>
 #include <iosfwd>
+#include <stdexcept>
 #include <string>
 #include <vector>
 
@@ -30,6 +31,14 @@ struct Evaluation {
 };
 nlohmann::json to_json(const Evaluation& e);
 Evaluation evaluation_from_json(const nlohmann::json& j);
+
+// Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
+// broke down on it): the search records it as a failed evaluation (ok = false, the message in
+// the status) and goes on. Anything else an evaluate function throws (InputError, a program error)
+// ends the search and propagates out of run_search.
+struct AnalysisFailure : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
 
 // The largest scaled constraint value (<= 0: all met); -inf when there are none.
 double worst_constraint(const Evaluation& e);
@@ -69,7 +78,8 @@ struct SearchSettings {
 };
 
 // Runs the search. Throws InputError when resuming from a missing checkpoint or one of another
-// case; everything else (failed analyses, limits, signals) ends in the result.
+// case, and passes on what an evaluate function throws other than AnalysisFailure; everything
+// else (failed analyses, limits, signals) ends in the result.
 SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings);
 
 // Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.

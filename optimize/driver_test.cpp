@@ -219,13 +219,13 @@ TEST(Driver, FailedAnalysesAreLoggedAndAvoided) {
   RecordProperty("failed_analyses", failed);
 }
 
-TEST(Driver, AThrowingAnalysisIsAFailureNotACrash) {
+TEST(Driver, ANumericalFailureIsAFailedEvaluationNotACrash) {
   Quadratic q;
   SearchProblem p = q.problem();
   auto inner = p.evaluate;
   auto calls = std::make_shared<std::atomic<int>>(0);
   p.evaluate = [inner, calls](const std::vector<double>& x) -> Evaluation {
-    if (++*calls == 5) throw std::runtime_error("solver blew up");
+    if (++*calls == 5) throw AnalysisFailure("solver blew up");
     return inner(x);
   };
   // The fifth analysis (one of the second iteration's designs) throws.
@@ -236,6 +236,24 @@ TEST(Driver, AThrowingAnalysisIsAFailureNotACrash) {
   EXPECT_GT(thrown, 0);
   ASSERT_GE(r.best, 0);
   EXPECT_NEAR(r.history[r.best].objective, 0.5, 1e-3);
+}
+
+// An input error inside an analysis is not a bad design: it ends the search and reaches the
+// caller, from the first (serial) analysis and from the parallel finite-difference points alike.
+TEST(Driver, AnInputErrorInAnAnalysisPropagates) {
+  for (int when : {1, 5}) {
+    Quadratic q;
+    SearchProblem p = q.problem();
+    auto inner = p.evaluate;
+    auto calls = std::make_shared<std::atomic<int>>(0);
+    p.evaluate = [inner, calls, when](const std::vector<double>& x) -> Evaluation {
+      if (++*calls == when) throw InputError("case.json: /constraints: broken");
+      return inner(x);
+    };
+    SearchSettings s = settings(Algorithm::slsqp);
+    s.threads = 2;
+    EXPECT_THROW(run_search(p, s), InputError) << "at analysis " << when;
+  }
 }
 
 TEST(Driver, BudgetStopsTheSearch) {
