@@ -26,7 +26,27 @@ using nlohmann::json;
 using Clock = std::chrono::steady_clock;
 
 constexpr const char* kCheckpointFormat = "fulmar-checkpoint";
-constexpr int kCheckpointVersion = 1;
+// Version 2 added the constraints' ids to the records (and a full record for every evaluation);
+// version 1 is still read: upgrade_v1_detail completes its records.
+constexpr int kCheckpointVersion = 2;
+
+// A version-1 record made whole: a null one (an analysis that threw) becomes an empty record,
+// a design point without results (no analysis ran) one that did not converge, and each
+// constraint row gets its id from the problem (same case, the fingerprint guarantees it, so the
+// same constraints in the same order).
+json upgrade_v1_detail(json d, const std::vector<std::string>& ids) {
+  if (d.is_null()) return to_json(EvaluationRecord{});
+  PointResult none;
+  none.reason = "not analysed";
+  const json not_analysed = to_json(none);
+  if (d.contains("points"))
+    for (auto& p : d["points"])
+      if (p.is_object() && !p.contains("converged")) p.update(not_analysed);
+  if (d.contains("constraints") && d["constraints"].is_array())
+    for (size_t k = 0; k < d["constraints"].size(); ++k)
+      if (!d["constraints"][k].contains("id") && k < ids.size()) d["constraints"][k]["id"] = ids[k];
+  return d;
+}
 
 // Thrown inside the NLopt callbacks to end the search (NLopt turns it into a forced stop).
 struct StopSearch {};
@@ -516,7 +536,8 @@ class Search {
     json j;
     try {
       j = json::parse(in);
-      if (j.at("format") != kCheckpointFormat || j.at("version") != kCheckpointVersion)
+      const bool v1 = j.at("version") == 1;
+      if (j.at("format") != kCheckpointFormat || (j.at("version") != kCheckpointVersion && !v1))
         throw InputError(s_.checkpoint.string() + ": not a fulmar checkpoint of version " +
                          std::to_string(kCheckpointVersion));
       if (j.at("fingerprint").get<std::string>() != s_.fingerprint)
@@ -524,8 +545,13 @@ class Search {
                          ": the checkpoint belongs to another case (or the case file changed); "
                          "run without --resume to start afresh");
       prior_elapsed_ = j.at("elapsed_s").get<double>();
-      for (const auto& e : j.at("evaluations")) {
-        Evaluation ev = evaluation_from_json(e);
+      const json& evals = j.at("evaluations");
+      for (size_t i = 0; i < evals.size(); ++i) {
+        json e = evals[i];
+        if (v1 && e.is_object() && e.contains("detail"))
+          e["detail"] = upgrade_v1_detail(e["detail"], p_.constraint_ids);
+        Evaluation ev =
+            evaluation_from_json(e, s_.checkpoint.string() + ": /evaluations/" + std::to_string(i));
         replay_[ev.x] = std::move(ev);
       }
     } catch (const json::exception& e) {
@@ -563,17 +589,18 @@ class Search {
 
 json to_json(const Evaluation& e) {
   return json{{"x", e.x},   {"objective", e.objective}, {"constraints", e.constraints},
-              {"ok", e.ok}, {"status", e.status},       {"detail", e.detail}};
+              {"ok", e.ok}, {"status", e.status},       {"detail", to_json(e.detail)}};
 }
 
-Evaluation evaluation_from_json(const json& j) {
+Evaluation evaluation_from_json(const json& j, const std::string& where) {
+  using namespace json_read;
   Evaluation e;
-  e.x = j.at("x").get<std::vector<double>>();
-  e.objective = j.at("objective").get<double>();
-  e.constraints = j.at("constraints").get<std::vector<double>>();
-  e.ok = j.at("ok").get<bool>();
-  e.status = j.at("status").get<std::string>();
-  e.detail = j.at("detail");
+  e.x = member(j, "x", where).get<std::vector<double>>();
+  e.objective = number(j, "objective", where);
+  e.constraints = member(j, "constraints", where).get<std::vector<double>>();
+  e.ok = boolean(j, "ok", where);
+  e.status = text(j, "status", where);
+  e.detail = evaluation_record_from_json(member(j, "detail", where), where + "/detail");
   return e;
 }
 

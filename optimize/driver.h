@@ -15,6 +15,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "optimize/evaluation_record.h"
 #include "optimize/search_options.h"
 
 namespace fulmar::optimize {
@@ -26,11 +27,12 @@ struct Evaluation {
   double objective = 0;
   std::vector<double> constraints;  // scaled; <= 0 is met
   bool ok = false;
-  std::string status;     // "ok" or what failed
-  nlohmann::json detail;  // per-point results etc., kept for history and summary
+  std::string status;       // "ok" or what failed
+  EvaluationRecord detail;  // per-point results etc., kept for history and summary
 };
 nlohmann::json to_json(const Evaluation& e);
-Evaluation evaluation_from_json(const nlohmann::json& j);
+// Throws InputError naming `where` and the key for a missing or mistyped key.
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
 
 // Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
 // broke down on it): the search records it as a failed evaluation (ok = false, the message in
@@ -51,6 +53,9 @@ struct SearchProblem {
   // takes what is left), in this order.
   std::vector<std::vector<double>> extra_starts;
   std::vector<std::string> constraint_names;
+  // Stable ids of the constraints (EvaluationRecord's ConstraintRecord::id), in the same order;
+  // they complete the records of a version-1 checkpoint, which had none. May be empty.
+  std::vector<std::string> constraint_ids;
   // Must be thread-safe and deterministic (depends on x only).
   std::function<Evaluation(const std::vector<double>& x)> evaluate;
 };

@@ -14,11 +14,6 @@ using nlohmann::json;
 using run_text::fixed;
 using run_text::g6;
 
-double jnum(const json& j, const char* key) {
-  if (!j.is_object() || !j.contains(key) || !j.at(key).is_number()) return std::nan("");
-  return j.at(key).get<double>();
-}
-
 Chart section_chart(const CstShape& base, const CstShape& opt) {
   Chart c;
   c.title = "Sections";
@@ -106,12 +101,10 @@ PolarPlots polar_plots(const Case& c, const std::vector<PolarCondition>& conds,
       dp.line = false;
       dp.markers = true;
       dp.colour = which == 0 ? kBaselineColour : kOptimizedColour;
-      const json pts = (which == 0 ? base_v : opt_v).detail.value("points", json::array());
-      for (const auto& p : pts)
-        if (std::abs(jnum(p, "reynolds") - conds[k].flow.reynolds) <=
-                1e-6 * conds[k].flow.reynolds &&
-            p.value("converged", false))
-          dp.x.push_back(jnum(p, "cd")), dp.y.push_back(jnum(p, "cl"));
+      for (const auto& p : (which == 0 ? base_v : opt_v).detail.points)
+        if (std::abs(p.reynolds - conds[k].flow.reynolds) <= 1e-6 * conds[k].flow.reynolds &&
+            p.result.converged)
+          dp.x.push_back(p.result.cd), dp.y.push_back(p.result.cl);
       if (!dp.x.empty()) pc.series.push_back(dp);
     }
     polar_charts.push_back(pc);

@@ -76,14 +76,13 @@ std::string report_markdown(const Case& c, const json& summary, const SearchResu
   m << "| point | section | alpha (deg) | cl | cd | cm c/4 | transition up / low "
        "|\n|---|---|---|---|---|---|---|\n";
   for (int k = 0; k < 2; ++k) {
-    const json pts = (k == 0 ? v.baseline : v.optimum).detail.value("points", json::array());
-    for (const auto& p : pts) {
-      m << "| " << p.value("point", std::string());
-      if (c.scenarios.size() > 1) m << "/" << p.value("scenario", std::string());
-      m << " | " << (k == 0 ? "baseline" : "optimized") << " | " << fixed(jnum(p, "alpha"), 2)
-        << " | " << fixed(jnum(p, "cl"), 3) << " | " << fixed(jnum(p, "cd"), 5) << " | "
-        << fixed(jnum(p, "cm"), 4) << " | " << fixed(jnum(p, "transition_upper"), 3) << " / "
-        << fixed(jnum(p, "transition_lower"), 3) << " |\n";
+    for (const auto& p : (k == 0 ? v.baseline : v.optimum).detail.points) {
+      const PointResult& q = p.result;
+      m << "| " << p.point;
+      if (c.scenarios.size() > 1) m << "/" << p.scenario;
+      m << " | " << (k == 0 ? "baseline" : "optimized") << " | " << fixed(q.alpha_deg, 2) << " | "
+        << fixed(q.cl, 3) << " | " << fixed(q.cd, 5) << " | " << fixed(q.cm, 4) << " | "
+        << fixed(q.transition_upper, 3) << " / " << fixed(q.transition_lower, 3) << " |\n";
     }
   }
   m << "\nWeighted cd: baseline " << fixed(cd0, 5) << ", optimized " << fixed(cd1, 5);

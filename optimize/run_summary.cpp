@@ -20,18 +20,25 @@ json section_block(const Case& c, const Evaluation& e, const std::string& name,
   b["name"] = name;
   b["analysis_ok"] = e.ok;
   b["status"] = e.status;
-  b["panels"] = e.detail.value("panels", 0);
+  b["panels"] = e.detail.panels;
   const double wcd = weighted_cd(c, e);
   b["weighted_cd"] = std::isfinite(wcd) ? json(wcd) : json(nullptr);
-  b["points"] = e.detail.value("points", json::array());
-  const json clm = e.detail.value("cl_max", json::object());
-  b["cl_max"] = clm.value("found", false) ? clm.at("cl_max") : json(nullptr);
-  b["alpha_cl_max"] = clm.value("found", false) ? clm.at("alpha") : json(nullptr);
-  const json g = e.detail.value("geometry", json::object());
-  for (const char* k : {"thickness", "thickness_x", "camber", "camber_x", "le_radius", "te_gap",
-                        "te_angle_deg", "area"})
-    b[k] = g.value(k, 0.0);
-  b["t_c"] = g.value("thickness", 0.0);
+  json points = json::array();
+  for (const auto& p : e.detail.points) points.push_back(to_json(p));
+  b["points"] = std::move(points);
+  const ClMaxResult& clm = e.detail.cl_max;
+  b["cl_max"] = clm.found ? json(clm.cl_max) : json(nullptr);
+  b["alpha_cl_max"] = clm.found ? json(clm.alpha_deg) : json(nullptr);
+  const CstMeasures& g = e.detail.geometry;
+  b["thickness"] = g.thickness;
+  b["thickness_x"] = g.thickness_x;
+  b["camber"] = g.camber;
+  b["camber_x"] = g.camber_x;
+  b["le_radius"] = g.le_radius;
+  b["te_gap"] = g.te_gap;
+  b["te_angle_deg"] = g.te_angle_deg;
+  b["area"] = g.area;
+  b["t_c"] = g.thickness;
   b["cst"] = cst_to_json(shape, name);
   return b;
 }
@@ -86,7 +93,10 @@ json run_summary(const Case& c, const SearchResult& r, const VerifiedOptimum& v,
   summary["drag_reduction_percent"] = std::isfinite(cd0) && std::isfinite(cd1) && cd0 > 0
                                           ? json(100.0 * (1 - cd1 / cd0))
                                           : json(nullptr);
-  summary["constraints"] = SectionProblem::constraint_table(v.optimum);
+  json constraints = json::array();
+  for (const auto& row : SectionProblem::constraint_table(v.optimum))
+    constraints.push_back(to_json(row));
+  summary["constraints"] = std::move(constraints);
   summary["feasible"] = v.feasible;
   summary["evaluations"] = r.history.size();
   summary["verified_candidates"] = v.candidates;

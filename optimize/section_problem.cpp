@@ -33,23 +33,6 @@ GeometryMeasures measure_geometry(const CstShape& shape, const std::vector<SparL
   return measure_cst(shape, stations, allowed_upper, allowed_lower);
 }
 
-json to_json(const GeometryMeasures& g) {
-  return json{{"thickness", g.thickness},
-              {"thickness_x", g.thickness_x},
-              {"camber", g.camber},
-              {"camber_x", g.camber_x},
-              {"spar_thickness", g.spar_thickness},
-              {"te_gap", g.te_gap},
-              {"te_angle_deg", g.te_angle_deg},
-              {"le_radius", g.le_radius},
-              {"area", g.area},
-              {"min_shape_gap", g.min_shape_gap},
-              {"curvature_reversals_upper", g.reversals_upper},
-              {"curvature_reversals_lower", g.reversals_lower},
-              {"excess_reversal_upper", g.excess_reversal_upper},
-              {"excess_reversal_lower", g.excess_reversal_lower}};
-}
-
 BaselineShape resolve_baseline(const Case& c) {
   return resolve_shape(c, c.baseline);
 }
@@ -135,37 +118,44 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
     : case_(c), evaluator_(evaluator), space_(std::move(space)) {
   const Constraints& k = c.constraints;
   // Scales put one unit of scaled violation at a change a designer would call large.
-  limits_.push_back({"thickness positive everywhere", true, 0.01, 0.1});
-  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_upper) +
+  limits_.push_back({"thickness_positive", "thickness positive everywhere", true, 0.01, 0.1});
+  limits_.push_back({"reversal_upper",
+                     "curvature reversal beyond " + std::to_string(k.max_reversals_upper) +
                          " on the upper surface (strength, 1/c)",
                      false, kFlatCurvature, 0.5});
-  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_lower) +
+  limits_.push_back({"reversal_lower",
+                     "curvature reversal beyond " + std::to_string(k.max_reversals_lower) +
                          " on the lower surface (strength, 1/c)",
                      false, kFlatCurvature, 0.5});
   if (!std::isnan(k.thickness_min))
-    limits_.push_back({"t/c", true, k.thickness_min, k.thickness_min});
-  for (const auto& s : k.spars) limits_.push_back({"t/c at x = " + text(s.x), true, s.min, s.min});
+    limits_.push_back({"thickness_min", "t/c", true, k.thickness_min, k.thickness_min});
+  for (const auto& s : k.spars)
+    limits_.push_back({"spar_" + text(s.x), "t/c at x = " + text(s.x), true, s.min, s.min});
   if (!std::isnan(k.te_gap_min))
-    limits_.push_back({"trailing-edge gap", true, k.te_gap_min, 0.005});
+    limits_.push_back({"te_gap_min", "trailing-edge gap", true, k.te_gap_min, 0.005});
   if (!std::isnan(k.te_gap_max))
-    limits_.push_back({"trailing-edge gap", false, k.te_gap_max, 0.005});
+    limits_.push_back({"te_gap_max", "trailing-edge gap", false, k.te_gap_max, 0.005});
   if (!std::isnan(k.te_angle_min_deg))
-    limits_.push_back({"trailing-edge wedge angle (deg)", true, k.te_angle_min_deg,
+    limits_.push_back({"te_angle_min", "trailing-edge wedge angle (deg)", true, k.te_angle_min_deg,
                        std::max(1.0, k.te_angle_min_deg)});
   if (!std::isnan(k.le_radius_min))
-    limits_.push_back({"leading-edge radius", true, k.le_radius_min, k.le_radius_min});
-  if (!std::isnan(k.area_min)) limits_.push_back({"area", true, k.area_min, k.area_min});
+    limits_.push_back(
+        {"le_radius_min", "leading-edge radius", true, k.le_radius_min, k.le_radius_min});
+  if (!std::isnan(k.area_min))
+    limits_.push_back({"area_min", "area", true, k.area_min, k.area_min});
   if (!std::isnan(k.thickness_x_min))
-    limits_.push_back({"x of maximum t/c", true, k.thickness_x_min, 0.1});
+    limits_.push_back({"thickness_x_min", "x of maximum t/c", true, k.thickness_x_min, 0.1});
   if (!std::isnan(k.thickness_x_max))
-    limits_.push_back({"x of maximum t/c", false, k.thickness_x_max, 0.1});
+    limits_.push_back({"thickness_x_max", "x of maximum t/c", false, k.thickness_x_max, 0.1});
   if (!std::isnan(k.cl_max_min))
-    limits_.push_back({kClMaxConstraint, true, k.cl_max_min, k.cl_max_min});
+    limits_.push_back({kClMaxId, kClMaxConstraint, true, k.cl_max_min, k.cl_max_min});
   for (const auto& p : c.points)
     if (!std::isnan(p.cm_min))
       for (const auto& s : c.scenarios)
-        limits_.push_back(
-            {"cm at " + scenario_label(p, s, c.scenarios.size()), true, p.cm_min, 0.05});
+        limits_.push_back({"cm_" + scenario_label(p, s, c.scenarios.size()),
+                           "cm at " + scenario_label(p, s, c.scenarios.size()), true, p.cm_min,
+                           0.05});
+  for (const auto& l : limits_) ids_.push_back(l.id);
   for (const auto& l : limits_)
     names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + text(l.limit));
 }
@@ -195,8 +185,7 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
   if (!std::isnan(k.thickness_x_min)) values.push_back(g.thickness_x);
   if (!std::isnan(k.thickness_x_max)) values.push_back(g.thickness_x);
 
-  e.detail["geometry"] = to_json(g);
-  json points = json::array();
+  e.detail.geometry = g;
   e.ok = true;
   e.status = "ok";
   double objective = kFailedObjective;
@@ -261,35 +250,40 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     size_t i = 0;
     for (const auto& p : c.points)
       for (const auto& s : c.scenarios) {
-        json pj = i < results.size() ? to_json(results[i]) : json::object();
-        pj["point"] = p.name;
-        pj["scenario"] = s.name;
-        pj["cl_target"] = p.cl;
-        pj["reynolds"] = p.reynolds;
-        pj["mach"] = p.mach;
-        points.push_back(pj);
+        DesignPointRecord pr;
+        if (i < results.size()) {
+          pr.result = results[i];
+        } else {
+          pr.result.reason = "not analysed";
+        }
+        pr.point = p.name;
+        pr.scenario = s.name;
+        pr.cl_target = p.cl;
+        pr.reynolds = p.reynolds;
+        pr.mach = p.mach;
+        e.detail.points.push_back(std::move(pr));
         ++i;
       }
   }
-  e.detail["points"] = points;
-  e.detail["cl_max"] = to_json(clmax);
-  e.detail["panels"] = panels;
+  e.detail.cl_max = clmax;
+  e.detail.panels = panels;
   e.objective = objective;
 
-  json table = json::array();
   for (size_t i = 0; i < limits_.size(); ++i) {
     const Limit& l = limits_[i];
     const double v = values[i];
     double scaled = 1.0;  // an unknown value (failed analysis) counts as violated
     if (std::isfinite(v)) scaled = (l.is_min ? l.limit - v : v - l.limit) / l.scale;
     e.constraints.push_back(scaled);
-    table.push_back({{"name", l.name},
-                     {"value", std::isfinite(v) ? json(v) : json(nullptr)},
-                     {"limit", l.limit},
-                     {"kind", l.is_min ? "min" : "max"},
-                     {"satisfied", std::isfinite(v) && scaled <= c.optimizer.constraint_tol}});
+    ConstraintRecord row;
+    row.id = l.id;
+    row.name = l.name;
+    row.value = std::isfinite(v) ? v : std::numeric_limits<double>::quiet_NaN();
+    row.limit = l.limit;
+    row.is_min = l.is_min;
+    row.satisfied = std::isfinite(v) && scaled <= c.optimizer.constraint_tol;
+    e.detail.constraints.push_back(std::move(row));
   }
-  e.detail["constraints"] = table;
   return e;
 }
 
@@ -299,13 +293,14 @@ SearchProblem SectionProblem::search_problem() const {
   p.upper = space_.upper;
   p.start = space_.start;
   p.constraint_names = names_;
+  p.constraint_ids = ids_;
   const int panels = case_.analysis.panels;
   // The cl_max margin of the search (AnalysisOptions::search_cl_max_margin) on the scaled value;
   // the detail's table keeps the limit itself.
   int cl_max_index = -1;
   double shift = 0.0;
   for (size_t i = 0; i < limits_.size(); ++i)
-    if (limits_[i].name == kClMaxConstraint) {
+    if (limits_[i].id == kClMaxId) {
       cl_max_index = static_cast<int>(i);
       shift = case_.analysis.search_cl_max_margin / limits_[i].scale;
     }
@@ -318,8 +313,8 @@ SearchProblem SectionProblem::search_problem() const {
   return p;
 }
 
-json SectionProblem::constraint_table(const Evaluation& e) {
-  return e.detail.value("constraints", json::array());
+const std::vector<ConstraintRecord>& SectionProblem::constraint_table(const Evaluation& e) {
+  return e.detail.constraints;
 }
 
 }  // namespace fulmar::optimize

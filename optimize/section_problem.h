@@ -43,12 +43,11 @@ using GeometryMeasures = CstMeasures;
 // `allowed_upper` / `allowed_lower`: curvature reversals tolerated on each surface.
 GeometryMeasures measure_geometry(const CstShape& shape, const std::vector<SparLimit>& spars,
                                   int allowed_upper = 0, int allowed_lower = 1);
-nlohmann::json to_json(const GeometryMeasures& g);
 
 // Objective of a design whose analysis failed: 100 x cd = 5 is cd 0.05, worse than any attached
 // flow section at these conditions, finite so the search can move away.
 inline constexpr double kFailedObjective = 5.0;
-// Name of the maximum-lift constraint in tables and history.
+// Display name of the maximum-lift constraint (its id: kClMaxId).
 inline constexpr const char* kClMaxConstraint = "cl_max at landing";
 
 class SectionProblem {
@@ -62,11 +61,14 @@ class SectionProblem {
   Evaluation evaluate(const std::vector<double>& x, int panels) const;
   // The search problem (panels of the case's search resolution).
   SearchProblem search_problem() const;
-  // What each constraint is, for tables: [{name, value, limit, kind ("min"/"max"), satisfied}].
-  static nlohmann::json constraint_table(const Evaluation& e);
+  // Stable ids of the constraints (ConstraintRecord::id), in the order of constraint_names.
+  const std::vector<std::string>& constraint_ids() const { return ids_; }
+  // The unscaled constraint table of an evaluation of this problem.
+  static const std::vector<ConstraintRecord>& constraint_table(const Evaluation& e);
 
  private:
   struct Limit {
+    std::string id;  // stable (ConstraintRecord::id)
     std::string name;
     bool is_min = true;
     double limit = 0;
@@ -77,6 +79,7 @@ class SectionProblem {
   DesignSpace space_;
   std::vector<Limit> limits_;
   std::vector<std::string> names_;
+  std::vector<std::string> ids_;
 };
 
 }  // namespace fulmar::optimize

@@ -40,15 +40,25 @@ TEST(SectionProblem, ConstraintTableNamesEveryLimit) {
   const SectionProblem p(c, ev, design_space(c, b.shape));
   const Evaluation e = p.evaluate(p.space().start, 160);
   ASSERT_TRUE(e.ok) << e.status;
-  const json table = SectionProblem::constraint_table(e);
+  const std::vector<ConstraintRecord>& table = SectionProblem::constraint_table(e);
   ASSERT_EQ(table.size(), p.constraint_names().size());
-  std::set<std::string> names;
-  for (const auto& row : table) names.insert(row.at("name").get<std::string>());
+  ASSERT_EQ(p.constraint_ids().size(), p.constraint_names().size());
+  std::set<std::string> names, ids;
+  for (size_t i = 0; i < table.size(); ++i) {
+    names.insert(table[i].name);
+    ids.insert(table[i].id);
+    EXPECT_EQ(table[i].id, p.constraint_ids()[i]);
+  }
   for (const char* n :
        {"thickness positive everywhere", "t/c", "cl_max at landing", "cm at cruise"})
     EXPECT_TRUE(names.count(n)) << n;
+  // Each constraint has its own stable id, apart from its display text.
+  EXPECT_EQ(ids.size(), table.size());
+  for (const char* id : {"thickness_positive", "reversal_upper", "reversal_lower", "thickness_min",
+                         "cl_max", "cm_cruise"})
+    EXPECT_TRUE(ids.count(id)) << id;
   // The symmetric 18 % baseline has cm 0 and t/c 0.18: both met.
-  for (const auto& row : table) EXPECT_TRUE(row.at("satisfied").get<bool>()) << row.dump();
+  for (const auto& row : table) EXPECT_TRUE(row.satisfied) << row.id;
 }
 
 // The search sees the cl_max constraint tightened by analysis.search_cl_max_margin (scaled by the
@@ -63,7 +73,7 @@ TEST(SectionProblem, SearchAddsTheClMaxMarginOnly) {
   ASSERT_EQ(plain.constraints.size(), searched.constraints.size());
   int shifted = 0;
   for (size_t i = 0; i < plain.constraints.size(); ++i) {
-    if (p.constraint_names()[i].rfind(kClMaxConstraint, 0) == 0) {
+    if (p.constraint_ids()[i] == kClMaxId) {
       EXPECT_NEAR(searched.constraints[i] - plain.constraints[i], 0.026 / 1.3, 1e-12);
       ++shifted;
     } else {
@@ -71,7 +81,7 @@ TEST(SectionProblem, SearchAddsTheClMaxMarginOnly) {
     }
   }
   EXPECT_EQ(shifted, 1);
-  EXPECT_EQ(SectionProblem::constraint_table(searched), SectionProblem::constraint_table(plain));
+  EXPECT_EQ(to_json(searched.detail), to_json(plain.detail));
 }
 
 TEST(SectionProblem, CrossingSurfacesAreAFailureWithoutAnalysis) {
@@ -116,9 +126,8 @@ TEST(SectionProblem, ImprovesAPoorBaselineAndMeetsItsConstraints) {
   // thickness-camber combination exactly at order 4).
   EXPECT_LT(best.objective, 0.8 * start.objective);
   for (const auto& row : SectionProblem::constraint_table(best))
-    EXPECT_TRUE(row.at("satisfied").get<bool>()) << row.dump();
-  const json g = best.detail.at("geometry");
-  EXPECT_NEAR(g.at("thickness").get<double>(), 0.12, 0.01);
+    EXPECT_TRUE(row.satisfied) << row.id;
+  EXPECT_NEAR(best.detail.geometry.thickness, 0.12, 0.01);
   RecordProperty("evaluations", int(r.history.size()));
 }
 
