@@ -10,14 +10,6 @@
 namespace fulmar {
 namespace {
 
-// Bernstein sum sum_i a_i B_{i,n}(x) by de Casteljau (stable for all orders used here).
-double bernstein_sum(const Eigen::VectorXd& a, double x) {
-  std::vector<double> b(a.data(), a.data() + a.size());
-  for (size_t r = 1; r < b.size(); ++r)
-    for (size_t i = 0; i + r < b.size(); ++i) b[i] = (1 - x) * b[i] + x * b[i + 1];
-  return b.empty() ? 0.0 : b[0];
-}
-
 // Maximum of f over [0, 1]: a dense cosine-spaced scan, then golden-section refinement around the
 // best sample, so the result moves smoothly with the shape (no jumps from sample to sample).
 template <class F>
@@ -108,7 +100,8 @@ CstMeasures measure_cst(const CstShape& s, const std::vector<double>& spar_x, in
   double gap = 1e300;
   for (int i = 0; i <= 200; ++i) {
     const double x = 0.5 * (1 - std::cos(std::numbers::pi * i / 200));
-    gap = std::min(gap, bernstein_sum(s.upper, x) - bernstein_sum(s.lower, x));
+    gap = std::min(
+        gap, cst_shape_function(s, Surface::kUpper, x) - cst_shape_function(s, Surface::kLower, x));
   }
   g.min_shape_gap = gap;
   const CurvatureReversals rev = curvature_reversals(cst_section(s, 161, "design"));

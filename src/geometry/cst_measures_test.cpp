@@ -62,5 +62,19 @@ TEST(CstMeasures, ExcessReversalGrowsWithAWave) {
   EXPECT_GT(previous, kFlatCurvature);
 }
 
+// The shape-function gap uses cst.h's Bernstein sum: with every upper coefficient 0.2 and every
+// lower one -0.1 the shape functions are those constants (the Bernstein basis sums to 1), so the
+// gap is 0.3 at every x, to rounding.
+TEST(CstMeasures, ShapeGapOfConstantShapeFunctions) {
+  CstShape s;
+  s.upper = Eigen::VectorXd::Constant(6, 0.2);
+  s.lower = Eigen::VectorXd::Constant(6, -0.1);
+  EXPECT_NEAR(measure_cst(s, {}).min_shape_gap, 0.3, 1e-14);
+  // Lower a_2 = a_3 = 1: at x = 0.5 (a sample of the scan) B_{2,5} + B_{3,5} = 20/32 is their
+  // largest, so the gap there is 0.3 - 1.1 * 0.625 = -0.3875 (the surfaces cross).
+  s.lower[2] = s.lower[3] = 1.0;
+  EXPECT_NEAR(measure_cst(s, {}).min_shape_gap, -0.3875, 1e-12);
+}
+
 }  // namespace
 }  // namespace fulmar
