@@ -231,14 +231,14 @@ void add_analyze_command(CLI::App& app) {
       "lift coefficient (--cl): viscous with --re, potential flow with --inviscid.\n\n"
       "Viscous (--re): a panel method strongly coupled to integral boundary layers on both "
       "surfaces and the wake, e^N transition (--ncrit) or forced transition (--trip-upper, "
-      "--trip-lower), drag from the wake by Squire-Young, Karman-Tsien loads with --mach (to "
-      "0.7). JSON keys: alpha, cl, cd, cm, cd_friction, cd_pressure, transition_upper, "
+      "--trip-lower), drag from the wake by Squire-Young, Karman-Tsien loads with --mach. JSON "
+      "keys: alpha, cl, cd, cm, cd_friction, cd_pressure, transition_upper, "
       "transition_lower (x/c), converged, status, reason, residual, iterations, re, mach, ncrit. "
       "A solution that does not converge is a result, not an error: the exit code is 0, "
       "converged is false, status and reason say why, and a warning goes to stderr; its numbers "
       "are the last iterate and must not be used.\n\n"
       "Inviscid (--inviscid): a linear-vorticity panel method, Karman-Tsien corrected with "
-      "--mach (to 0.8).\n\n" +
+      "--mach.\n\n" +
           std::string(kCaution));
   add_section_options(cmd, args->section);
   auto* alpha = cmd->add_option("--alpha", args->alpha_deg, "Angle of attack, degrees")

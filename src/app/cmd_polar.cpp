@@ -19,6 +19,7 @@
 #include "app/section_options.h"
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/rule_check.h"
 #include "geometry/panelling.h"
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
@@ -35,13 +36,14 @@ struct PolarArgs {
   bool json = false;
 };
 
-// FROM:TO:STEP in degrees -> the angles FROM, FROM+STEP, ... up to TO (inclusive within 1e-9 of
-// a step). STEP may be negative when TO < FROM; at most 10001 angles.
-std::vector<double> parse_alpha_range(const std::string& text) {
-  auto bad = [&](const std::string& rule) {
-    return InputError("--alpha '" + text + "': " + rule +
-                      " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
-  };
+InputError bad_alpha(const std::string& text, const std::string& rule) {
+  return InputError("--alpha '" + text + "': " + rule +
+                    " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
+}
+
+// FROM:TO:STEP -> the three numbers (the syntax only).
+std::vector<double> alpha_numbers(const std::string& text) {
+  auto bad = [&](const std::string& rule) { return bad_alpha(text, rule); };
   std::vector<double> v;
   std::stringstream ss(text);
   std::string part;
@@ -57,6 +59,14 @@ std::vector<double> parse_alpha_range(const std::string& text) {
     v.push_back(x);
   }
   if (v.size() != 3 || text.back() == ':') throw bad("needs exactly three numbers");
+  return v;
+}
+
+// FROM:TO:STEP in degrees for potential flow -> the angles FROM, FROM+STEP, ... up to TO
+// (inclusive within 1e-9 of a step). STEP may be negative when TO < FROM; at most 10001 angles.
+std::vector<double> parse_alpha_range(const std::string& text) {
+  auto bad = [&](const std::string& rule) { return bad_alpha(text, rule); };
+  const std::vector<double> v = alpha_numbers(text);
   const double from = v[0], to = v[1], step = v[2];
   if (std::abs(from) > 90.0 || std::abs(to) > 90.0) throw bad("angles must be within -90..90");
   if (step == 0.0) throw bad("STEP must not be zero");
@@ -121,28 +131,35 @@ void run_inviscid(const PolarArgs& args) {
   }
 }
 
-// FROM:TO:STEP for a viscous polar: the angles are marched outward from zero lift and returned
-// increasing, so FROM <= TO and STEP > 0; within +-60 deg (the viscous solver's range).
+// FROM:TO:STEP for a viscous polar, by the rules of viscous::PolarOptions (the angles are marched
+// outward from zero lift and returned increasing).
 viscous::PolarOptions viscous_alpha_range(const std::string& text) {
-  const std::vector<double> alphas = parse_alpha_range(text);  // the shared syntax checks
-  std::vector<double> v;
-  std::stringstream ss(text);
-  std::string part;
-  while (std::getline(ss, part, ':')) v.push_back(std::stod(part));
+  const std::vector<double> v = alpha_numbers(text);
   viscous::PolarOptions o;
   o.alpha_from = v[0];
   o.alpha_to = v[1];
   o.alpha_step = v[2];
-  auto bad = [&](const std::string& rule) {
-    return InputError("--alpha '" + text + "': " + rule +
-                      " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
-  };
-  if (o.alpha_from > o.alpha_to) throw bad("FROM must not exceed TO for a viscous polar");
-  if (o.alpha_step <= 0.0) throw bad("STEP must be positive for a viscous polar");
-  if (std::abs(o.alpha_from) > 60.0 || std::abs(o.alpha_to) > 60.0)
-    throw bad("angles must be within -60..60 for a viscous polar");
-  if (alphas.size() > 2001) throw bad("more than 2001 angles for a viscous polar");
-  o.Validate();
+  static const char* const kNames[] = {"alpha_from", "alpha_to", "alpha_step"};
+  static const char* const kParts[] = {"FROM", "TO", "STEP"};
+  try {
+    o.Validate();
+  } catch (const InputError& e) {
+    // The field the message is about (the first one it names) is FROM, TO or STEP.
+    std::string m = e.what();
+    int subject = -1;
+    std::size_t first = std::string::npos;
+    for (int k = 0; k < 3; ++k) {
+      const auto at = m.find(std::string(kNames[k]) + " =");
+      if (at < first) first = at, subject = k;
+    }
+    if (subject >= 0 && m.find("must") != std::string::npos)
+      m = kParts[subject] + std::string(" ") + stated_rule(m);
+    for (int k = 0; k < 3; ++k) {
+      for (auto at = m.find(kNames[k]); at != std::string::npos; at = m.find(kNames[k]))
+        m.replace(at, std::string(kNames[k]).size(), kParts[k]);
+    }
+    throw InputError("--alpha '" + text + "': " + m + " for a viscous polar");
+  }
   return o;
 }
 
