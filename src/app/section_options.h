@@ -146,6 +146,18 @@ inline viscous::ViscousOptions viscous_options(const SectionArgs& s, const Visco
   return o;
 }
 
+// The transition conditions in words: "e^N with critical N 9; no trips", with the trips when there
+// are any.
+inline std::string transition_words(const viscous::ViscousOptions& o) {
+  std::string text = "e^N with critical N " + general_text(o.n_crit, 3);
+  if (o.trip_upper < 1.0 || o.trip_lower < 1.0)
+    text += "; trips at x/c " + general_text(o.trip_upper, 3) + " upper, " +
+            general_text(o.trip_lower, 3) + " lower";
+  else
+    text += "; no trips";
+  return text;
+}
+
 // The scalar results of one viscous point: alpha (deg), cl, cd, cm (quarter chord), cd_friction,
 // cd_pressure, transition_upper, transition_lower (x/c), converged, status, reason, residual,
 // iterations.

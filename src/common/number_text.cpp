@@ -10,6 +10,9 @@ std::string fixed_text(double value, int decimals) {
   if (!std::isfinite(value)) return kNotAvailable;
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*f", decimals, value);
+  // A value that rounds to zero is written without a sign ("0.0000", not "-0.0000").
+  if (buf[0] == '-' && std::string(buf + 1).find_first_not_of("0.") == std::string::npos)
+    return buf + 1;
   return buf;
 }
 

@@ -13,7 +13,8 @@ namespace fulmar {
 // The text written for a value that is not finite.
 inline constexpr const char* kNotAvailable = "n/a";
 
-// `value` with `decimals` digits after the point ("%.*f"); "n/a" when not finite.
+// `value` with `decimals` digits after the point ("%.*f"; a value that rounds to zero has no
+// sign); "n/a" when not finite.
 std::string fixed_text(double value, int decimals);
 
 // `value` with `digits` significant digits, as "%.*g" writes it (2e+06); "n/a" when not finite.

@@ -13,6 +13,8 @@ constexpr double kInf = std::numeric_limits<double>::infinity();
 TEST(NumberText, FiniteValuesAsPrintfWritesThem) {
   EXPECT_EQ(fixed_text(0.123456, 4), "0.1235");
   EXPECT_EQ(fixed_text(-2.0, 1), "-2.0");
+  EXPECT_EQ(fixed_text(-1e-7, 4), "0.0000");
+  EXPECT_EQ(fixed_text(-0.00005, 4), "-0.0001");
   EXPECT_EQ(general_text(2e6, 4), "2e+06");
   EXPECT_EQ(general_text(0.5, 3), "0.5");
   EXPECT_EQ(csv_number(0.1), "0.1");

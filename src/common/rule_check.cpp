@@ -9,6 +9,8 @@ std::string stated_rule(const std::string& message) {
 
 std::string placed_rule(const std::string& place, const std::string& value,
                         const std::string& message) {
+  // A message without "must" states the value itself ("altitude 25000 m is outside ...").
+  if (message.find("must") == std::string::npos) return place + ": " + message;
   std::string text = place + ": " + stated_rule(message);
   if (!value.empty()) text += " (got " + value + ")";
   return text;

@@ -16,7 +16,8 @@ namespace fulmar {
 // The rule a Validate() message states: the text from the first "must" on, or the whole message.
 std::string stated_rule(const std::string& message);
 
-// "<place>: <rule> (got <value>)"; `value` empty: "<place>: <rule>".
+// "<place>: <rule> (got <value>)"; `value` empty: "<place>: <rule>"; a message without "must"
+// (one that states the value itself): "<place>: <message>".
 std::string placed_rule(const std::string& place, const std::string& value,
                         const std::string& message);
 

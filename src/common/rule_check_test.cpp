@@ -21,6 +21,8 @@ TEST(RuleCheck, TheRuleIsTheMessageFromMustOn) {
   EXPECT_EQ(stated_rule("viscous option n_crit = 0.3: must be in [0.5, 20]"),
             "must be in [0.5, 20]");
   EXPECT_EQ(stated_rule("no rule words here"), "no rule words here");
+  EXPECT_EQ(placed_rule("--altitude", "-5", "altitude -5 m is outside the range 0 to 20000 m"),
+            "--altitude: altitude -5 m is outside the range 0 to 20000 m");
 }
 
 TEST(RuleCheck, ReWordsTheErrorWithThePlaceAndTheValue) {
