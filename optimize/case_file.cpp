@@ -12,6 +12,7 @@
 #include "common/enum_names.h"
 #include "common/error.h"
 #include "common/json_text.h"
+#include "common/number_text.h"
 #include "common/rule_check.h"
 #include "geometry/naca.h"
 #include "solvers/viscous/viscous_solver.h"
@@ -22,10 +23,7 @@ namespace {
 using nlohmann::json;
 
 std::string number_text(double v) {
-  std::ostringstream s;
-  s.precision(6);
-  s << v;
-  return s.str();
+  return general_text(v, 6);
 }
 
 // The lift coefficients a design point may ask for (a case rule: below -0.5 or above 2 no clean
