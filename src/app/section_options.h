@@ -164,7 +164,7 @@ inline std::string transition_words(const viscous::ViscousOptions& o) {
 inline nlohmann::json viscous_point_json(const viscous::ViscousResult& r) {
   nlohmann::json j = r.to_json();
   j.erase("residual_history");
-  if (!std::isfinite(r.residual)) j["residual"] = nullptr;
+  j["residual"] = json_number(r.residual);  // null when not finite
   return j;
 }
 
