@@ -72,7 +72,12 @@ CstMeasures measure_cst(const CstShape& s, const std::vector<double>& spar_x, in
   CstMeasures g;
   auto [tx, t] = maximum_of([&](double x) { return cst_thickness_at(s, x); });
   g.thickness = t, g.thickness_x = tx;
-  auto camber = [&](double x) { return 0.5 * (cst_upper_y(s, x) + cst_lower_y(s, x)); };
+  // camber(x) as geometry/metrics.h defines it: the mid-line's height above the chord line from
+  // the origin to the trailing-edge midpoint (1, (te_upper + te_lower) / 2).
+  const double chord_slope = 0.5 * (s.te_upper + s.te_lower);
+  auto camber = [&](double x) {
+    return 0.5 * (cst_upper_y(s, x) + cst_lower_y(s, x)) - chord_slope * x;
+  };
   auto [cxp, cp] = maximum_of(camber);
   auto [cxn, cn] = maximum_of([&](double x) { return -camber(x); });
   if (cp >= cn)
@@ -85,8 +90,12 @@ CstMeasures measure_cst(const CstShape& s, const std::vector<double>& spar_x, in
   const double slope_u = -s.upper[s.upper.size() - 1] + s.te_upper;
   const double slope_l = -s.lower[s.lower.size() - 1] + s.te_lower;
   g.te_angle_deg = (std::atan(slope_l) - std::atan(slope_u)) * 180 / std::numbers::pi;
-  // Nose radius of a CST surface with class exponent 0.5: r = a_0^2 / 2 (Kulfan 2008).
-  g.le_radius = 0.5 * std::min(s.upper[0] * s.upper[0], s.lower[0] * s.lower[0]);
+  // Nose radius of a CST surface with class exponent 0.5: r = a_0^2 / 2 (Kulfan 2008). The
+  // section's radius is the inverse of the mean of the two surfaces' nose curvatures, as in
+  // geometry/metrics.h (and, unlike the smaller of the two, smooth in the coefficients).
+  const double r_upper = 0.5 * s.upper[0] * s.upper[0];
+  const double r_lower = 0.5 * s.lower[0] * s.lower[0];
+  g.le_radius = r_upper > 0 && r_lower > 0 ? 2 * r_upper * r_lower / (r_upper + r_lower) : 0.0;
   // Area by the trapezoidal rule in theta, x = (1 - cos theta)/2: the sqrt(x) nose becomes smooth.
   constexpr int n = 400;
   double area = 0;

@@ -13,11 +13,13 @@ namespace fulmar {
 // the finite-difference gradients need). Lengths in chord fractions.
 struct CstMeasures {
   double thickness = 0, thickness_x = 0;  // maximum of y_u - y_l and its x
-  double camber = 0, camber_x = 0;        // (y_u + y_l)/2 of largest magnitude, signed, and its x
+  // camber(x) of largest magnitude, signed, and its x; camber(x) and le_radius are defined as in
+  // geometry/metrics.h (SectionMetrics), so both measures of one shape agree.
+  double camber = 0, camber_x = 0;
   std::vector<double> spar_thickness;     // thickness at each station asked for
   double te_gap = 0;
   double te_angle_deg = 0;   // wedge angle between the surface tangents at x = 1
-  double le_radius = 0;      // the smaller of the two surfaces' nose radii a_0^2 / 2 (Kulfan 2008)
+  double le_radius = 0;      // inverse mean nose curvature; each surface's radius a_0^2 / 2
   double area = 0;           // integral of the thickness over the chord
   double min_shape_gap = 0;  // min over x of S_u(x) - S_l(x) (thickness / class function)
   int reversals_upper = 0, reversals_lower = 0;  // counted on the section (geometry/metrics.h)

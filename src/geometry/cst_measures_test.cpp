@@ -3,6 +3,7 @@
 
 #include <gtest/gtest.h>
 
+#include "geometry/metrics.h"
 #include "geometry/naca.h"
 
 namespace fulmar {
@@ -74,6 +75,31 @@ TEST(CstMeasures, ShapeGapOfConstantShapeFunctions) {
   // largest, so the gap there is 0.3 - 1.1 * 0.625 = -0.3875 (the surfaces cross).
   s.lower[2] = s.lower[3] = 1.0;
   EXPECT_NEAR(measure_cst(s, {}).min_shape_gap, -0.3875, 1e-12);
+}
+
+// One definition of each measure: the analytic measures of a CST shape and the spline measures of
+// the same shape sampled finely (geometry/metrics.h) agree, also for a cambered shape whose
+// trailing-edge heights are not symmetric (the chord line tilts) and whose two nose coefficients
+// differ (the radius is the inverse mean curvature, not either surface's radius).
+TEST(CstMeasures, AgreeWithTheMetricsOfTheSampledSection) {
+  CstShape s = fit_cst(naca_section("4415", 201), 6, 6).shape;
+  s.upper[0] *= 1.2;  // a blunter upper nose
+  s.te_upper = 0.006;
+  s.te_lower = 0.002;  // trailing-edge midpoint 0.004 above the x axis
+  const CstMeasures g = measure_cst(s, {});
+  const SectionMetrics m = section_metrics(cst_section(s, 2000));
+  // Sampled at 2000 cosine-spaced points per surface, the spline's ordinates are exact to about
+  // 1e-8; the extrema are flat, so their values agree closely and their x only to about 1e-3.
+  EXPECT_NEAR(g.thickness, m.thickness, 1e-6);
+  EXPECT_NEAR(g.camber, m.camber, 1e-6);
+  EXPECT_NEAR(g.camber_x, m.camber_x, 2e-3);
+  EXPECT_NEAR(g.te_angle_deg, m.te_angle_deg, 0.05);
+  // The spline nose radius comes from local fits through four points on each side of the nose:
+  // with points 2.5e-6 chord apart there it is within about 1 % of the analytic curvature.
+  EXPECT_NEAR(g.le_radius, m.le_radius, 0.01 * g.le_radius);
+  // Not either surface's own radius: the two differ by the factor 1.44 here.
+  EXPECT_GT(g.le_radius, 0.5 * s.lower[0] * s.lower[0] * 1.05);
+  EXPECT_LT(g.le_radius, 0.5 * s.upper[0] * s.upper[0] / 1.05);
 }
 
 }  // namespace
