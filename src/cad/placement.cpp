@@ -4,27 +4,30 @@
 #include <numbers>
 #include <sstream>
 
+#include "common/enum_names.h"
 #include "common/error.h"
 
 namespace fulmar::cad {
 
+namespace {
+
+const EnumNames<LengthUnit> kUnits{
+    {LengthUnit::mm, "mm"}, {LengthUnit::m, "m"}, {LengthUnit::in, "in"}};
+
+}  // namespace
+
 std::string to_string(LengthUnit unit) {
-  switch (unit) {
-    case LengthUnit::mm:
-      return "mm";
-    case LengthUnit::m:
-      return "m";
-    case LengthUnit::in:
-      return "in";
-  }
-  return "mm";
+  return kUnits.name(unit);
 }
 
 LengthUnit length_unit_from_string(const std::string& text, const std::string& what) {
-  if (text == "mm") return LengthUnit::mm;
-  if (text == "m") return LengthUnit::m;
-  if (text == "in") return LengthUnit::in;
-  throw InputError(what + " = '" + text + "': must be one of mm, m, in");
+  // The message of the option's rule ("must be one of"), not EnumNames' "unknown": the case
+  // file and the command line re-word it by its rule.
+  try {
+    return kUnits.parse(text, what, "unit");
+  } catch (const InputError&) {
+    throw InputError(what + " = '" + text + "': must be one of " + kUnits.list());
+  }
 }
 
 double metres_per_unit(LengthUnit unit) {
