@@ -20,6 +20,11 @@ struct Frame {
 
 Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b);
 
+// Row `i` of a #points by 2 array (x, y) as a point.
+inline Eigen::Vector2d point_row(const Eigen::Matrix<double, Eigen::Dynamic, 2>& points, int i) {
+  return points.row(i).transpose();
+}
+
 // Stream-function weights of a linear vortex sheet: psi = wa * gamma_a + wb * gamma_b.
 void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb);
 // Same with ln|p - a| and ln|p - b| given (shared by the two panels meeting at a node when many
