@@ -97,8 +97,7 @@ SurfaceSourceResponse InviscidSolver::surface_source_response() const {
   const int ns = n + 1;
   std::vector<panel::Frame> frames;
   frames.reserve(n);
-  for (int j = 0; j < n; ++j)
-    frames.push_back(panel::frame(point_row(nodes_, j), point_row(nodes_, j + 1)));
+  panel::append_frames(nodes_, frames);
   MatrixXd b = MatrixXd::Zero(n + 2, n);
   VectorXd ln_r(ns);
   for (int i = 0; i <= n; ++i) {
@@ -132,10 +131,8 @@ CouplingModel InviscidSolver::coupling_model(double alpha_rad,
 
   std::vector<panel::Frame> frames;
   frames.reserve(np);
-  for (int j = 0; j < n; ++j)
-    frames.push_back(panel::frame(point_row(nodes_, j), point_row(nodes_, j + 1)));
-  for (int k = 0; k < npw; ++k)
-    frames.push_back(panel::frame(point_row(m.wake, k), point_row(m.wake, k + 1)));
+  panel::append_frames(nodes_, frames);
+  panel::append_frames(m.wake, frames);
 
   m.arc_length.resize(nst);
   m.arc_length.head(ns) = arc_;
@@ -239,10 +236,9 @@ Eigen::VectorXd InviscidSolver::edge_velocity_with_sources(double alpha_rad, con
                      " sources given for " + std::to_string(n + npw) + " panels");
   }
   std::vector<panel::Frame> frames;
-  for (int j = 0; j < n; ++j)
-    frames.push_back(panel::frame(point_row(nodes_, j), point_row(nodes_, j + 1)));
-  for (int k = 0; k < npw; ++k)
-    frames.push_back(panel::frame(point_row(wake, k), point_row(wake, k + 1)));
+  frames.reserve(n + npw);
+  panel::append_frames(nodes_, frames);
+  panel::append_frames(wake, frames);
   const double ca = std::cos(alpha_rad), sa = std::sin(alpha_rad);
   Eigen::VectorXd rhs = Eigen::VectorXd::Zero(n + 2);
   for (int i = 0; i <= n; ++i) {

@@ -143,8 +143,7 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
   MatrixXd a = MatrixXd::Zero(n + 2, n + 2);
   std::vector<panel::Frame> frames;
   frames.reserve(n);
-  for (int j = 0; j < n; ++j)
-    frames.push_back(panel::frame(point_row(nodes_, j), point_row(nodes_, j + 1)));
+  panel::append_frames(nodes_, frames);
   VectorXd ln_r(n + 1);  // ln of the distances from the field node to every node
   for (int i = 0; i <= n; ++i) {
     const Vector2d p = point_row(nodes_, i);
@@ -358,8 +357,7 @@ std::vector<panel::Frame> InviscidSolver::section_frames() const {
   const int n = panel_count();
   std::vector<panel::Frame> frames;
   frames.reserve(n + 1);
-  for (int j = 0; j < n; ++j)
-    frames.push_back(panel::frame(point_row(nodes_, j), point_row(nodes_, j + 1)));
+  panel::append_frames(nodes_, frames);
   if (!sharp_) frames.push_back(panel::frame(point_row(nodes_, n), point_row(nodes_, 0)));
   return frames;
 }
