@@ -2,10 +2,10 @@
 
 #include <cmath>
 #include <numbers>
-#include <sstream>
 
 #include "common/enum_names.h"
 #include "common/error.h"
+#include "common/number_text.h"
 
 namespace fulmar::cad {
 
@@ -44,9 +44,7 @@ double metres_per_unit(LengthUnit unit) {
 
 void Placement::Validate() const {
   auto fail = [](const std::string& field, double value, const std::string& rule) {
-    std::ostringstream s;
-    s << field << " = " << value << ": " << rule;
-    throw InputError(s.str());
+    throw InputError(field + " = " + general_text(value) + ": " + rule);
   };
   if (!std::isfinite(chord) || !(chord > 0.0)) fail("chord", chord, "must be a positive length");
   if (!std::isfinite(twist_deg) || std::abs(twist_deg) > 90.0) {
