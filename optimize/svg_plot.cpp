@@ -1,5 +1,6 @@
 #include "optimize/svg_plot.h"
 
+#include "common/number_text.h"
 #include "common/xml_text.h"
 
 #include <algorithm>
@@ -10,18 +11,14 @@
 namespace fulmar::optimize {
 namespace {
 
+// SVG coordinates to a hundredth of a pixel.
 std::string f(double v) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.2f", v);
-  return buf;
+  return fixed_text(v, 2);
 }
 
 std::string tick_text(double v, double step) {
-  char buf[32];
   const int decimals = std::max(0, int(std::ceil(-std::log10(step) + 1e-9)));
-  std::snprintf(buf, sizeof buf, "%.*f", std::min(decimals, 6),
-                std::abs(v) < 1e-12 * step ? 0.0 : v);
-  return buf;
+  return fixed_text(std::abs(v) < 1e-12 * step ? 0.0 : v, std::min(decimals, 6));
 }
 
 // A round tick step (1, 2 or 5 times a power of ten) giving about `target` intervals.

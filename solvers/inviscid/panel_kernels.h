@@ -20,6 +20,19 @@ struct Frame {
 
 Frame frame(const Eigen::Vector2d& a, const Eigen::Vector2d& b);
 
+// Row `i` of a #points by 2 array (x, y) as a point.
+inline Eigen::Vector2d point_row(const Eigen::Matrix<double, Eigen::Dynamic, 2>& points, int i) {
+  return points.row(i).transpose();
+}
+
+// Appends to `frames` the frames of the panels between consecutive rows of `points` (#points by
+// 2; #points - 1 frames, from row 0 to the last row).
+inline void append_frames(const Eigen::Matrix<double, Eigen::Dynamic, 2>& points,
+                          std::vector<Frame>& frames) {
+  for (int j = 0; j + 1 < static_cast<int>(points.rows()); ++j)
+    frames.push_back(frame(point_row(points, j), point_row(points, j + 1)));
+}
+
 // Stream-function weights of a linear vortex sheet: psi = wa * gamma_a + wb * gamma_b.
 void psi_vortex_linear(const Frame& f, const Eigen::Vector2d& p, double& wa, double& wb);
 // Same with ln|p - a| and ln|p - b| given (shared by the two panels meeting at a node when many

@@ -215,5 +215,20 @@ TEST(WakeSheet, NodeToNodeModeSpeedsUpTheCrest) {
   EXPECT_LT(response, 1.0);
 }
 
+// Frames of a polyline: one per segment, in order, each from its first point (a 3-4-5 triangle's
+// legs give lengths 3 and 4 exactly), appended after what the list holds.
+TEST(PanelFrames, AppendedInOrderFromEachSegmentStart) {
+  Eigen::Matrix<double, Eigen::Dynamic, 2> p(3, 2);
+  p << 0, 0, 3, 0, 3, 4;
+  std::vector<Frame> frames(1);
+  append_frames(p, frames);
+  ASSERT_EQ(frames.size(), 3u);
+  EXPECT_EQ(frames[1].a, Vector2d(0, 0));
+  EXPECT_DOUBLE_EQ(frames[1].length, 3.0);
+  EXPECT_EQ(frames[2].a, Vector2d(3, 0));
+  EXPECT_DOUBLE_EQ(frames[2].length, 4.0);
+  EXPECT_NEAR(frames[2].t.y(), 1.0, 1e-15);
+}
+
 }  // namespace
 }  // namespace fulmar::panel

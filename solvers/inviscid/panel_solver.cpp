@@ -4,10 +4,10 @@
 #include <cmath>
 #include <limits>
 #include <numbers>
-#include <sstream>
 #include <vector>
 
 #include "common/error.h"
+#include "common/number_text.h"
 #include "solvers/inviscid/panel_kernels.h"
 
 namespace fulmar {
@@ -16,32 +16,22 @@ namespace {
 using Eigen::MatrixXd;
 using Eigen::Vector2d;
 using Eigen::VectorXd;
+using panel::point_row;
 
 constexpr double kGamma = 1.4;  // ratio of specific heats of air
-
-std::string number(double v) {
-  std::ostringstream s;
-  s.precision(6);
-  s << v;
-  return s.str();
-}
-
-Vector2d row(const Points& p, int i) {
-  return p.row(i).transpose();
-}
 
 }  // namespace
 
 void InviscidOptions::Validate() const {
   if (!std::isfinite(mach) || mach < 0.0 || mach > 0.8) {
-    throw InputError("inviscid options: mach = " + number(mach) + " must be in [0, 0.8]");
+    throw InputError("inviscid options: mach = " + general_text(mach) + " must be in [0, 0.8]");
   }
   if (!std::isfinite(sharp_te_gap) || sharp_te_gap <= 0.0 || sharp_te_gap > 0.01) {
-    throw InputError("inviscid options: sharp_te_gap = " + number(sharp_te_gap) +
+    throw InputError("inviscid options: sharp_te_gap = " + general_text(sharp_te_gap) +
                      " must be in (0, 0.01]");
   }
   if (!std::isfinite(wake_length) || wake_length < 1.0 || wake_length > 100.0) {
-    throw InputError("inviscid options: wake_length = " + number(wake_length) +
+    throw InputError("inviscid options: wake_length = " + general_text(wake_length) +
                      " chords must be in [1, 100]");
   }
   if (wake_nodes != 0 && (wake_nodes < 4 || wake_nodes > 1000)) {
@@ -101,12 +91,12 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
   if (!nodes_.allFinite()) throw InputError("inviscid solver: a section node is not finite");
   const int n = n_nodes - 1;  // panels
 
-  te_mid_ = 0.5 * (row(nodes_, 0) + row(nodes_, n));
+  te_mid_ = 0.5 * (point_row(nodes_, 0) + point_row(nodes_, n));
   int le = 0;
   for (int i = 0; i < n_nodes; ++i) {
-    if ((row(nodes_, i) - te_mid_).norm() > (row(nodes_, le) - te_mid_).norm()) le = i;
+    if ((point_row(nodes_, i) - te_mid_).norm() > (point_row(nodes_, le) - te_mid_).norm()) le = i;
   }
-  le_ = row(nodes_, le);
+  le_ = point_row(nodes_, le);
   chord_ = (le_ - te_mid_).norm();
   if (!(chord_ > 0.0)) throw InputError("inviscid solver: the section has zero chord");
   quarter_chord_ = le_ + 0.25 * (te_mid_ - le_);
@@ -114,10 +104,11 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
   arc_.resize(n_nodes);
   arc_(0) = 0.0;
   for (int j = 0; j < n; ++j) {
-    const double len = (row(nodes_, j + 1) - row(nodes_, j)).norm();
+    const double len = (point_row(nodes_, j + 1) - point_row(nodes_, j)).norm();
     if (!(len > 1e-10 * chord_)) {
       throw InputError("inviscid solver: section nodes " + std::to_string(j) + " and " +
-                       std::to_string(j + 1) + " coincide (panel length " + number(len) + ")");
+                       std::to_string(j + 1) + " coincide (panel length " + general_text(len) +
+                       ")");
     }
     arc_(j + 1) = arc_(j) + len;
   }
@@ -132,17 +123,17 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
         "trailing edge -> leading edge -> lower trailing edge");
   }
 
-  te_gap_ = (row(nodes_, 0) - row(nodes_, n)).norm() / chord_;
+  te_gap_ = (point_row(nodes_, 0) - point_row(nodes_, n)).norm() / chord_;
   sharp_ = te_gap_ < options_.sharp_te_gap;
-  const Vector2d t_up = (row(nodes_, 0) - row(nodes_, 1)).normalized();
-  const Vector2d t_lo = (row(nodes_, n) - row(nodes_, n - 1)).normalized();
+  const Vector2d t_up = (point_row(nodes_, 0) - point_row(nodes_, 1)).normalized();
+  const Vector2d t_lo = (point_row(nodes_, n) - point_row(nodes_, n - 1)).normalized();
   te_bisector_ = t_up + t_lo;
   if (te_bisector_.norm() < 1e-6) te_bisector_ = te_mid_ - le_;
   te_bisector_.normalize();
 
   panel::Frame te_frame;
   if (!sharp_) {
-    te_frame = panel::frame(row(nodes_, n), row(nodes_, 0));
+    te_frame = panel::frame(point_row(nodes_, n), point_row(nodes_, 0));
     const Vector2d n_out = -te_frame.n;
     cn_ = 0.5 * te_bisector_.dot(n_out);
     cs_ = 0.5 * te_bisector_.dot(te_frame.t);
@@ -152,12 +143,12 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
   MatrixXd a = MatrixXd::Zero(n + 2, n + 2);
   std::vector<panel::Frame> frames;
   frames.reserve(n);
-  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
+  panel::append_frames(nodes_, frames);
   VectorXd ln_r(n + 1);  // ln of the distances from the field node to every node
   for (int i = 0; i <= n; ++i) {
-    const Vector2d p = row(nodes_, i);
+    const Vector2d p = point_row(nodes_, i);
     for (int j = 0; j <= n; ++j) {
-      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
+      ln_r(j) = panel::half_log_distance_squared(p, point_row(nodes_, j), chord_);
     }
     for (int j = 0; j < n; ++j) {
       double wa = 0.0, wb = 0.0;
@@ -168,7 +159,7 @@ InviscidSolver::InviscidSolver(const Points& nodes, const InviscidOptions& optio
   }
   if (!sharp_) {
     for (int i = 0; i <= n; ++i) {
-      const Vector2d p = row(nodes_, i);
+      const Vector2d p = point_row(nodes_, i);
       const double w = cn_ * panel::psi_source_constant(te_frame, p, panel::Cut::kRight) -
                        cs_ * panel::psi_vortex_constant(te_frame, p);
       a(i, 0) += w;
@@ -279,7 +270,8 @@ void InviscidSolver::loads_from_speed(double alpha_rad, const VectorXd& q,
   Vector2d force = Vector2d::Zero();
   double moment = 0.0;  // counter-clockwise about the quarter chord
   for (int j = 0; j < n; ++j) {
-    const Vector2d pa = row(nodes_, j) - quarter_chord_, pb = row(nodes_, j + 1) - quarter_chord_;
+    const Vector2d pa = point_row(nodes_, j) - quarter_chord_,
+                   pb = point_row(nodes_, j + 1) - quarter_chord_;
     const Vector2d d = pb - pa;
     const double len = d.norm();
     const Vector2d n_out(d.y() / len, -d.x() / len);
@@ -311,13 +303,13 @@ void InviscidSolver::loads_from_speed(double alpha_rad, const VectorXd& q,
     if (!std::isfinite(out.cl)) out.cl = 0.0;
     if (!std::isfinite(out.cm)) out.cm = 0.0;
   } else if (!conditioned) {
-    out.message = "panel system ill-conditioned: rcond " + number(rcond_) + " < 1e-13";
+    out.message = "panel system ill-conditioned: rcond " + general_text(rcond_) + " < 1e-13";
   } else if (!correction_valid) {
-    out.message = "Karman-Tsien correction invalid: incompressible cp_min " + number(1.0 - q2_max) +
-                  " too low for Mach " + number(mach);
+    out.message = "Karman-Tsien correction invalid: incompressible cp_min " +
+                  general_text(1.0 - q2_max) + " too low for Mach " + general_text(mach);
   } else if (out.critical_exceeded) {
-    out.message = "solved; cp_min " + number(out.cp_min) + " below critical Cp " +
-                  number(out.cp_critical) + ": locally supersonic, correction doubtful";
+    out.message = "solved; cp_min " + general_text(out.cp_min) + " below critical Cp " +
+                  general_text(out.cp_critical) + ": locally supersonic, correction doubtful";
   } else {
     out.message = "solved";
   }
@@ -332,7 +324,7 @@ void InviscidSolver::solve_for_cl(double cl_target, InviscidResult& out) const {
   auto fail = [&](const std::string& why) {
     solve(0.0, out);
     out.converged = false;
-    out.message = "no angle gives cl " + number(cl_target) + ": " + why;
+    out.message = "no angle gives cl " + general_text(cl_target) + ": " + why;
   };
   if (!std::isfinite(cl_target)) return fail("target not finite");
   if (std::abs(incompressible_target) >= r) return fail("beyond the potential-flow maximum");
@@ -356,293 +348,18 @@ void InviscidSolver::solve_for_cl(double cl_target, InviscidResult& out) const {
   out.iterations = it;
   if (err > 1e-8) {
     out.converged = false;
-    out.message = "target cl not reached: |cl - target| = " + number(err) + " > 1e-8 after " +
+    out.message = "target cl not reached: |cl - target| = " + general_text(err) + " > 1e-8 after " +
                   std::to_string(it) + " Newton steps";
   }
 }
-
-namespace {
-
-// Velocity / V_inf at `point` from the surface speeds q (#nodes), the section panels' frames
-// (N, then the trailing-edge gap panel unless sharp) and the gap panel's coefficients.
-Vector2d field_velocity(double alpha_rad, const VectorXd& q,
-                        const std::vector<panel::Frame>& frames, bool sharp, double cn, double cs,
-                        const Vector2d& point) {
-  const int n = static_cast<int>(q.size()) - 1;
-  Vector2d v(std::cos(alpha_rad), std::sin(alpha_rad));
-  for (int j = 0; j < n; ++j) {
-    Vector2d va, vb;
-    panel::velocity_vortex_linear(frames[j], point, 1.0, va, vb);
-    v += q(j) * va + q(j + 1) * vb;
-  }
-  if (!sharp) {
-    const panel::Frame& f = frames[n];
-    const double dq = q(0) - q(n);
-    v += cn * dq * panel::velocity_source_constant(f, point, 1.0) -
-         cs * dq * panel::velocity_vortex_constant(f, point, 1.0);
-  }
-  return v;
-}
-
-}  // namespace
 
 std::vector<panel::Frame> InviscidSolver::section_frames() const {
   const int n = panel_count();
   std::vector<panel::Frame> frames;
   frames.reserve(n + 1);
-  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
-  if (!sharp_) frames.push_back(panel::frame(row(nodes_, n), row(nodes_, 0)));
+  panel::append_frames(nodes_, frames);
+  if (!sharp_) frames.push_back(panel::frame(point_row(nodes_, n), point_row(nodes_, 0)));
   return frames;
-}
-
-Vector2d InviscidSolver::velocity_at(double alpha_rad, const Vector2d& point) const {
-  VectorXd q;
-  surface_speed(alpha_rad, q);
-  return field_velocity(alpha_rad, q, section_frames(), sharp_, cn_, cs_, point);
-}
-
-Points InviscidSolver::wake_trajectory(double alpha_rad) const {
-  const int n = panel_count();
-  const double ds0 = 0.5 * (arc_(1) - arc_(0) + arc_(n) - arc_(n - 1));
-  const double length = options_.wake_length * chord_;
-  int nw = options_.wake_nodes;
-  if (nw == 0) {
-    const double g = 1.12;
-    const double segments = std::log(1.0 + length * (g - 1.0) / ds0) / std::log(g);
-    nw = std::clamp(static_cast<int>(std::ceil(segments)) + 1, 8, 1000);
-  }
-  // Growth ratio g with ds0 (g^(nw-1) - 1) / (g - 1) = length, by bisection.
-  auto total = [&](double g) {
-    return std::abs(g - 1.0) < 1e-12 ? ds0 * (nw - 1)
-                                     : ds0 * (std::pow(g, nw - 1) - 1.0) / (g - 1.0);
-  };
-  double lo = 0.2, hi = 5.0;
-  for (int it = 0; it < 200; ++it) {
-    const double mid = 0.5 * (lo + hi);
-    (total(mid) < length ? lo : hi) = mid;
-  }
-  const double g = 0.5 * (lo + hi);
-
-  Points wake(nw, 2);
-  wake.row(0) = te_mid_.transpose();
-  Vector2d p = te_mid_ + ds0 * te_bisector_;
-  wake.row(1) = p.transpose();
-  double ds = ds0;
-  // velocity_at with the speeds and panel frames computed once for the whole trajectory.
-  VectorXd q;
-  surface_speed(alpha_rad, q);
-  const std::vector<panel::Frame> frames = section_frames();
-  auto velocity = [&](const Vector2d& point) {
-    return field_velocity(alpha_rad, q, frames, sharp_, cn_, cs_, point);
-  };
-  for (int k = 2; k < nw; ++k) {
-    ds *= g;
-    const Vector2d d1 = velocity(p).normalized();
-    const Vector2d pred = p + ds * d1;
-    const Vector2d d2 = velocity(pred).normalized();
-    p += ds * (d1 + d2).normalized();
-    wake.row(k) = p.transpose();
-  }
-  return wake;
-}
-
-SurfaceSourceResponse InviscidSolver::surface_source_response() const {
-  const int n = panel_count();
-  const int ns = n + 1;
-  std::vector<panel::Frame> frames;
-  frames.reserve(n);
-  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
-  MatrixXd b = MatrixXd::Zero(n + 2, n);
-  VectorXd ln_r(ns);
-  for (int i = 0; i <= n; ++i) {
-    const Vector2d p = row(nodes_, i);
-    for (int j = 0; j < ns; ++j)
-      ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
-    for (int j = 0; j < n; ++j)
-      b(i, j) = -panel::psi_source_constant(frames[j], p, ln_r(j), ln_r(j + 1), panel::Cut::kRight);
-  }
-  if (sharp_) {
-    b.row(0).setZero();
-    b.row(n).setZero();
-  }
-  SurfaceSourceResponse out;
-  out.dgamma = lu_.solve(b);
-  return out;
-}
-
-CouplingModel InviscidSolver::coupling_model(double alpha_rad,
-                                             const SurfaceSourceResponse* surface) const {
-  const int n = panel_count();
-  const int ns = n + 1;
-  CouplingModel m;
-  m.alpha = alpha_rad;
-  m.wake = wake_trajectory(alpha_rad);
-  const int nw = static_cast<int>(m.wake.rows());
-  const int nst = ns + nw;
-  const int nps = n, npw = nw - 1, np = nps + npw;
-  m.surface_nodes = ns;
-  m.wake_nodes = nw;
-
-  std::vector<panel::Frame> frames;
-  frames.reserve(np);
-  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
-  for (int k = 0; k < npw; ++k) frames.push_back(panel::frame(row(m.wake, k), row(m.wake, k + 1)));
-
-  m.arc_length.resize(nst);
-  m.arc_length.head(ns) = arc_;
-  m.arc_length(ns) = 0.0;
-  for (int k = 0; k < npw; ++k)
-    m.arc_length(ns + k + 1) = m.arc_length(ns + k) + frames[nps + k].length;
-
-  // Stream function of unit panel sources at the nodes -> change of the vortex strengths. The
-  // surface panels' part does not depend on the angle (given precomputed, or solved here).
-  const bool pre = surface && surface->dgamma.rows() == n + 2 && surface->dgamma.cols() == n;
-  const int first = pre ? nps : 0;  // first panel solved for here
-  MatrixXd b = MatrixXd::Zero(n + 2, np - first);
-  VectorXd ln_r(ns + nw);  // ln of the distances from the field node to every station
-  for (int i = 0; i <= n; ++i) {
-    const Vector2d p = row(nodes_, i);
-    if (!pre)
-      for (int j = 0; j < ns; ++j)
-        ln_r(j) = panel::half_log_distance_squared(p, row(nodes_, j), chord_);
-    for (int k = 0; k < nw; ++k)
-      ln_r(ns + k) = panel::half_log_distance_squared(p, row(m.wake, k), chord_);
-    for (int j = first; j < nps; ++j) {
-      b(i, j) = -panel::psi_source_constant(frames[j], p, ln_r(j), ln_r(j + 1), panel::Cut::kRight);
-    }
-    for (int k = 0; k < npw; ++k) {
-      b(i, nps + k - first) = -panel::psi_source_constant(frames[nps + k], p, ln_r(ns + k),
-                                                          ln_r(ns + k + 1), panel::Cut::kForward);
-    }
-  }
-  if (sharp_) {
-    b.row(0).setZero();
-    b.row(n).setZero();
-  }
-  MatrixXd dgamma(n + 2, np);  // d gamma / d sigma
-  if (pre) dgamma.leftCols(nps) = surface->dgamma;
-  dgamma.rightCols(np - first) = lu_.solve(b);
-
-  // Wake-node velocities: free stream + vortex sheet + gap panel + sources.
-  VectorXd q;
-  surface_speed(alpha_rad, q);
-  MatrixXd wake_sigma = MatrixXd::Zero(nw, np);  // d ue_wake / d sigma
-  m.edge_velocity.resize(nst);
-  m.edge_velocity.head(ns) = q;
-  const panel::Frame te_frame =
-      sharp_ ? panel::Frame{} : panel::frame(row(nodes_, n), row(nodes_, 0));
-  const std::vector<panel::Frame> wake_frames(frames.begin() + nps, frames.end());
-  VectorXd wake_weights(npw);
-  for (int k = 1; k < nw; ++k) {
-    const Vector2d p = row(m.wake, k);
-    Vector2d t = frames[nps + k - 1].t;
-    if (k < nw - 1) t = (t + frames[nps + k].t).normalized();
-    // Finite part at the node's own wake panels: the geometric mean of their lengths.
-    const double scale = k < nw - 1 ? std::sqrt(frames[nps + k - 1].length * frames[nps + k].length)
-                                    : frames[nps + k - 1].length;
-    VectorXd dgam = VectorXd::Zero(ns);  // d(ue_k)/d(gamma_j)
-    for (int j = 0; j < n; ++j) {
-      Vector2d va, vb;
-      panel::velocity_vortex_linear(frames[j], p, scale, va, vb);
-      dgam(j) += t.dot(va);
-      dgam(j + 1) += t.dot(vb);
-    }
-    if (!sharp_) {
-      const double w = cn_ * t.dot(panel::velocity_source_constant(te_frame, p, scale)) -
-                       cs_ * t.dot(panel::velocity_vortex_constant(te_frame, p, scale));
-      dgam(0) += w;
-      dgam(n) -= w;
-    }
-    for (int pp = 0; pp < nps; ++pp) {
-      wake_sigma(k, pp) = t.dot(panel::velocity_source_constant(frames[pp], p, scale));
-    }
-    panel::wake_source_velocity(wake_frames, p, t, scale, wake_weights);
-    wake_sigma.row(k).tail(npw) = wake_weights.transpose();
-    wake_sigma.row(k) += dgam.transpose() * dgamma.topRows(ns);
-    m.edge_velocity(ns + k) =
-        t.dot(Vector2d(std::cos(alpha_rad), std::sin(alpha_rad))) + dgam.dot(q);
-  }
-  // Wake node 0 sits on the trailing edge: the mean of the two trailing-edge speeds.
-  m.edge_velocity(ns) = 0.5 * (q(0) - q(n));
-  wake_sigma.row(0) = 0.5 * (dgamma.row(0) - dgamma.row(n));
-
-  // Sources from mass defects: each panel source is a difference of two station masses, so
-  // each column of D combines at most two columns of d(ue)/d(sigma).
-  m.mass_influence.setZero(nst, nst);
-  auto add_panel = [&](int panel, int station_a, int station_b, double sign) {
-    const double w = sign / frames[panel].length;  // sigma = w (m_b - m_a)
-    m.mass_influence.col(station_b).head(ns) += w * dgamma.col(panel).head(ns);
-    m.mass_influence.col(station_a).head(ns) -= w * dgamma.col(panel).head(ns);
-    m.mass_influence.col(station_b).tail(nw) += w * wake_sigma.col(panel);
-    m.mass_influence.col(station_a).tail(nw) -= w * wake_sigma.col(panel);
-  };
-  for (int j = 0; j < n; ++j) add_panel(j, j, j + 1, -1.0);
-  for (int k = 0; k < npw; ++k) add_panel(nps + k, ns + k, ns + k + 1, 1.0);
-  return m;
-}
-
-}  // namespace fulmar
-
-namespace fulmar {
-
-Eigen::VectorXd InviscidSolver::edge_velocity_with_sources(double alpha_rad, const Points& wake,
-                                                           const Eigen::VectorXd& sigma) const {
-  const int n = panel_count();
-  const int ns = n + 1, nw = static_cast<int>(wake.rows()), npw = nw - 1;
-  if (sigma.size() != n + npw) {
-    throw InputError("edge_velocity_with_sources: " + std::to_string(sigma.size()) +
-                     " sources given for " + std::to_string(n + npw) + " panels");
-  }
-  std::vector<panel::Frame> frames;
-  for (int j = 0; j < n; ++j) frames.push_back(panel::frame(row(nodes_, j), row(nodes_, j + 1)));
-  for (int k = 0; k < npw; ++k) frames.push_back(panel::frame(row(wake, k), row(wake, k + 1)));
-  const double ca = std::cos(alpha_rad), sa = std::sin(alpha_rad);
-  Eigen::VectorXd rhs = Eigen::VectorXd::Zero(n + 2);
-  for (int i = 0; i <= n; ++i) {
-    const Vector2d p = row(nodes_, i);
-    double psi = p.y() * ca - p.x() * sa;
-    for (int k = 0; k < n + npw; ++k) {
-      psi += sigma(k) * panel::psi_source_constant(
-                            frames[k], p, k < n ? panel::Cut::kRight : panel::Cut::kForward);
-    }
-    rhs(i) = -psi;
-  }
-  if (sharp_) {
-    rhs(0) = 0.0;
-    rhs(n) = 0.0;
-  }
-  const Eigen::VectorXd x = lu_.solve(rhs);
-  Eigen::VectorXd ue(ns + nw);
-  ue.head(ns) = x.head(ns);
-  ue(ns) = 0.5 * (x(0) - x(n));
-  const panel::Frame te_frame =
-      sharp_ ? panel::Frame{} : panel::frame(row(nodes_, n), row(nodes_, 0));
-  const std::vector<panel::Frame> wake_frames(frames.begin() + n, frames.end());
-  Eigen::VectorXd wake_weights(npw);
-  for (int k = 1; k < nw; ++k) {
-    const Vector2d p = row(wake, k);
-    Vector2d t = frames[n + k - 1].t;
-    if (k < nw - 1) t = (t + frames[n + k].t).normalized();
-    const double scale = k < nw - 1 ? std::sqrt(frames[n + k - 1].length * frames[n + k].length)
-                                    : frames[n + k - 1].length;
-    Vector2d v(ca, sa);
-    for (int j = 0; j < n; ++j) {
-      Vector2d va, vb;
-      panel::velocity_vortex_linear(frames[j], p, scale, va, vb);
-      v += x(j) * va + x(j + 1) * vb;
-    }
-    if (!sharp_) {
-      const double dq = x(0) - x(n);
-      v += cn_ * dq * panel::velocity_source_constant(te_frame, p, scale) -
-           cs_ * dq * panel::velocity_vortex_constant(te_frame, p, scale);
-    }
-    for (int pp = 0; pp < n; ++pp) {
-      v += sigma(pp) * panel::velocity_source_constant(frames[pp], p, scale);
-    }
-    panel::wake_source_velocity(wake_frames, p, t, scale, wake_weights);
-    ue(ns + k) = t.dot(v) + wake_weights.dot(sigma.tail(npw));
-  }
-  return ue;
 }
 
 }  // namespace fulmar

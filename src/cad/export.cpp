@@ -4,32 +4,33 @@
 #include <sstream>
 
 #include "common/atomic_file.h"
+#include "common/enum_names.h"
 #include "common/error.h"
 
 namespace fulmar::cad {
 
+namespace {
+
+const EnumNames<CadFormat> kFormats{{CadFormat::dxf, "dxf"},
+                                    {CadFormat::iges, "iges"},
+                                    {CadFormat::step, "step"},
+                                    {CadFormat::csv, "csv"},
+                                    {CadFormat::svg, "svg"}};
+
+}  // namespace
+
 std::string to_string(CadFormat format) {
-  switch (format) {
-    case CadFormat::dxf:
-      return "dxf";
-    case CadFormat::iges:
-      return "iges";
-    case CadFormat::step:
-      return "step";
-    case CadFormat::csv:
-      return "csv";
-    case CadFormat::svg:
-      return "svg";
-  }
-  return "step";
+  return kFormats.name(format);
 }
 
 CadFormat cad_format_from_string(const std::string& text, const std::string& what) {
-  for (CadFormat f :
-       {CadFormat::dxf, CadFormat::iges, CadFormat::step, CadFormat::csv, CadFormat::svg}) {
-    if (text == to_string(f)) return f;
+  // The message of the option's rule ("must be one of"), not EnumNames' "unknown": the case
+  // file and the command line re-word it by its rule.
+  try {
+    return kFormats.parse(text, what, "format");
+  } catch (const InputError&) {
+    throw InputError(what + " = '" + text + "': must be one of " + kFormats.list());
   }
-  throw InputError(what + " = '" + text + "': must be one of dxf, iges, step, csv, svg");
 }
 
 void ExportOptions::Validate() const {

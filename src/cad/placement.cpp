@@ -2,29 +2,32 @@
 
 #include <cmath>
 #include <numbers>
-#include <sstream>
 
+#include "common/enum_names.h"
 #include "common/error.h"
+#include "common/number_text.h"
 
 namespace fulmar::cad {
 
+namespace {
+
+const EnumNames<LengthUnit> kUnits{
+    {LengthUnit::mm, "mm"}, {LengthUnit::m, "m"}, {LengthUnit::in, "in"}};
+
+}  // namespace
+
 std::string to_string(LengthUnit unit) {
-  switch (unit) {
-    case LengthUnit::mm:
-      return "mm";
-    case LengthUnit::m:
-      return "m";
-    case LengthUnit::in:
-      return "in";
-  }
-  return "mm";
+  return kUnits.name(unit);
 }
 
 LengthUnit length_unit_from_string(const std::string& text, const std::string& what) {
-  if (text == "mm") return LengthUnit::mm;
-  if (text == "m") return LengthUnit::m;
-  if (text == "in") return LengthUnit::in;
-  throw InputError(what + " = '" + text + "': must be one of mm, m, in");
+  // The message of the option's rule ("must be one of"), not EnumNames' "unknown": the case
+  // file and the command line re-word it by its rule.
+  try {
+    return kUnits.parse(text, what, "unit");
+  } catch (const InputError&) {
+    throw InputError(what + " = '" + text + "': must be one of " + kUnits.list());
+  }
 }
 
 double metres_per_unit(LengthUnit unit) {
@@ -41,9 +44,7 @@ double metres_per_unit(LengthUnit unit) {
 
 void Placement::Validate() const {
   auto fail = [](const std::string& field, double value, const std::string& rule) {
-    std::ostringstream s;
-    s << field << " = " << value << ": " << rule;
-    throw InputError(s.str());
+    throw InputError(field + " = " + general_text(value) + ": " + rule);
   };
   if (!std::isfinite(chord) || !(chord > 0.0)) fail("chord", chord, "must be a positive length");
   if (!std::isfinite(twist_deg) || std::abs(twist_deg) > 90.0) {

@@ -12,6 +12,7 @@
 
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/number_text.h"
 #include "geometry/metrics.h"
 #include "geometry/spline.h"
 
@@ -82,12 +83,6 @@ std::string unquote(std::string s) {
   s = trim(s);
   if (s.size() >= 2 && s.front() == '"' && s.back() == '"') s = trim(s.substr(1, s.size() - 2));
   return s;
-}
-
-std::string fmt(double v) {
-  char b[64];
-  std::snprintf(b, sizeof b, "%.6g", v);
-  return b;
 }
 
 struct RawPoints {
@@ -227,8 +222,9 @@ CoordinateFile parse_coordinates(const std::string& text, const std::string& sou
   if (!(chord_est > 0) || gap > 0.1 * chord_est) {
     throw at_line(line.front(),
                   "no trailing edge: the first point (line " + std::to_string(line.front()) +
-                      ") and the last (line " + std::to_string(line.back()) + ") are " + fmt(gap) +
-                      " apart (file units), " + fmt(100 * gap / std::max(chord_est, 1e-300)) +
+                      ") and the last (line " + std::to_string(line.back()) + ") are " +
+                      general_text(gap) + " apart (file units), " +
+                      general_text(100 * gap / std::max(chord_est, 1e-300)) +
                       " % of the distance from their midpoint to the farthest point; a section "
                       "file runs from the trailing edge over one surface to the leading edge and "
                       "back, so they must be within 10 %");

@@ -8,6 +8,7 @@
 #include <numbers>
 #include <tuple>
 
+#include "common/enum_names.h"
 #include "common/error.h"
 
 namespace fulmar {
@@ -46,7 +47,8 @@ double class_function(double x) {
 }  // namespace
 
 std::string to_string(Surface s) {
-  return s == Surface::kUpper ? "upper" : "lower";
+  static const EnumNames<Surface> kSurfaces{{Surface::kUpper, "upper"}, {Surface::kLower, "lower"}};
+  return kSurfaces.name(s);
 }
 
 double cst_shape_function(const CstShape& shape, Surface surface, double x) {

@@ -5,21 +5,23 @@
 #include <fstream>
 #include <sstream>
 
+#include "common/enum_names.h"
 #include "common/error.h"
+#include "common/json_text.h"
 #include "geometry/naca.h"
 
 namespace fulmar {
 
+namespace {
+
+const EnumNames<ShapeSource::Kind> kKinds{{ShapeSource::Kind::kNaca, "naca"},
+                                          {ShapeSource::Kind::kCst, "cst"},
+                                          {ShapeSource::Kind::kCoordinates, "coordinates"}};
+
+}  // namespace
+
 std::string to_string(ShapeSource::Kind kind) {
-  switch (kind) {
-    case ShapeSource::Kind::kNaca:
-      return "naca";
-    case ShapeSource::Kind::kCst:
-      return "cst";
-    case ShapeSource::Kind::kCoordinates:
-      return "coordinates";
-  }
-  return "unknown";
+  return kKinds.name(kind);
 }
 
 bool looks_like_naca(const std::string& spec) {
@@ -60,12 +62,7 @@ ShapeSource load_shape_source(const std::string& spec) {
   for (char& c : ext) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   const auto first = text.find_first_not_of(" \t\r\n");
   if (ext == ".json" || (first != std::string::npos && text[first] == '{')) {
-    nlohmann::json j;
-    try {
-      j = nlohmann::json::parse(text);
-    } catch (const nlohmann::json::parse_error& e) {
-      throw InputError(spec + ": not valid JSON (" + std::string(e.what()) + ")");
-    }
+    const nlohmann::json j = parse_json_text(text, spec);
     src.kind = ShapeSource::Kind::kCst;
     src.cst = cst_from_json(j, spec);
     const std::string name =
