@@ -13,26 +13,10 @@
 #include <string>
 #include <vector>
 
-#include <nlohmann/json.hpp>
-
 #include "optimize/evaluation_record.h"
 #include "optimize/search_options.h"
 
 namespace fulmar::optimize {
-
-// The outcome of analysing one design. A failed analysis is a normal result (ok = false) with a
-// finite, unattractive objective and violated constraints, so the search steers away.
-struct Evaluation {
-  std::vector<double> x;
-  double objective = 0;
-  std::vector<double> constraints;  // scaled; <= 0 is met
-  bool ok = false;
-  std::string status;       // "ok" or what failed
-  EvaluationRecord detail;  // per-point results etc., kept for history and summary
-};
-nlohmann::json to_json(const Evaluation& e);
-// Throws InputError naming `where` and the key for a missing or mistyped key.
-Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
 
 // Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
 // broke down on it): the search records it as a failed evaluation (ok = false, the message in
@@ -41,9 +25,6 @@ Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& wher
 struct AnalysisFailure : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
-
-// The largest scaled constraint value (<= 0: all met); -inf when there are none.
-double worst_constraint(const Evaluation& e);
 
 struct SearchProblem {
   std::vector<double> lower, upper;  // bounds, #variables each
@@ -86,8 +67,5 @@ struct SearchSettings {
 // case, and passes on what an evaluate function throws other than AnalysisFailure; everything
 // else (failed analyses, limits, signals) ends in the result.
 SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings);
-
-// Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.
-int best_feasible(const std::vector<Evaluation>& history, double tolerance);
 
 }  // namespace fulmar::optimize

@@ -1,6 +1,8 @@
 #include "optimize/evaluation_record.h"
 
+#include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "common/error.h"
 
@@ -185,6 +187,39 @@ EvaluationRecord evaluation_record_from_json(const json& j, const std::string& w
     r.constraints.push_back(
         constraint_record_from_json(constraints[i], where + "/constraints/" + std::to_string(i)));
   return r;
+}
+
+nlohmann::json to_json(const Evaluation& e) {
+  return nlohmann::json{{"x", e.x},   {"objective", e.objective}, {"constraints", e.constraints},
+                        {"ok", e.ok}, {"status", e.status},       {"detail", to_json(e.detail)}};
+}
+
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where) {
+  using namespace json_read;
+  Evaluation e;
+  e.x = member(j, "x", where).get<std::vector<double>>();
+  e.objective = number(j, "objective", where);
+  e.constraints = member(j, "constraints", where).get<std::vector<double>>();
+  e.ok = boolean(j, "ok", where);
+  e.status = text(j, "status", where);
+  e.detail = evaluation_record_from_json(member(j, "detail", where), where + "/detail");
+  return e;
+}
+
+double worst_constraint(const Evaluation& e) {
+  double w = -std::numeric_limits<double>::infinity();
+  for (double c : e.constraints) w = std::max(w, c);
+  return w;
+}
+
+int best_feasible(const std::vector<Evaluation>& history, double tolerance) {
+  int best = -1;
+  for (size_t i = 0; i < history.size(); ++i) {
+    const Evaluation& e = history[i];
+    if (!e.ok || worst_constraint(e) > tolerance) continue;
+    if (best < 0 || e.objective < history[best].objective) best = int(i);
+  }
+  return best;
 }
 
 }  // namespace fulmar::optimize

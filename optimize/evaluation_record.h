@@ -60,6 +60,26 @@ ConstraintRecord constraint_record_from_json(const nlohmann::json& j, const std:
 nlohmann::json to_json(const EvaluationRecord& r);
 EvaluationRecord evaluation_record_from_json(const nlohmann::json& j, const std::string& where);
 
+// The outcome of analysing one design. A failed analysis is a normal result (ok = false) with a
+// finite, unattractive objective and violated constraints, so the search steers away.
+struct Evaluation {
+  std::vector<double> x;
+  double objective = 0;
+  std::vector<double> constraints;  // scaled; <= 0 is met
+  bool ok = false;
+  std::string status;       // "ok" or what failed
+  EvaluationRecord detail;  // per-point results etc., kept for history and summary
+};
+nlohmann::json to_json(const Evaluation& e);
+// Throws InputError naming `where` and the key for a missing or mistyped key.
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
+
+// The largest scaled constraint value (<= 0: all met); -inf when there are none.
+double worst_constraint(const Evaluation& e);
+
+// Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.
+int best_feasible(const std::vector<Evaluation>& history, double tolerance);
+
 // Strict readers of one key of a JSON object, shared by the typed results' conversions.
 namespace json_read {
 const nlohmann::json& member(const nlohmann::json& j, const std::string& key,

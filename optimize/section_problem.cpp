@@ -5,6 +5,7 @@
 #include <numbers>
 
 #include "common/error.h"
+#include "common/number_text.h"
 #include "geometry/coordinates_io.h"
 #include "geometry/metrics.h"
 #include "geometry/naca.h"
@@ -13,12 +14,6 @@ namespace fulmar::optimize {
 namespace {
 
 using nlohmann::json;
-
-std::string text(double v) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.6g", v);
-  return buf;
-}
 
 std::string scenario_label(const DesignPoint& p, const TransitionScenario& s, size_t scenarios) {
   return scenarios > 1 ? p.name + "/" + s.name : p.name;
@@ -99,8 +94,9 @@ DesignSpace design_space(const Case& c, const CstShape& baseline) {
       const double v = a[i];
       if ((!std::isnan(lo) && v < lo) || (!std::isnan(hi) && v > hi))
         throw InputError(c.path.string() + ": /parameterization/bounds/" + surface +
-                         ": the baseline's coefficient a_" + std::to_string(i) + " = " + text(v) +
-                         " lies outside [" + text(lo) + ", " + text(hi) + "]");
+                         ": the baseline's coefficient a_" + std::to_string(i) + " = " +
+                         general_text(v) + " lies outside [" + general_text(lo) + ", " +
+                         general_text(hi) + "]");
       d.start.push_back(v);
       d.lower.push_back(std::isnan(lo) ? v - p.margin : std::max(lo, v - p.margin));
       d.upper.push_back(std::isnan(hi) ? v + p.margin : std::min(hi, v + p.margin));
@@ -130,7 +126,8 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
   if (!std::isnan(k.thickness_min))
     limits_.push_back({"thickness_min", "t/c", true, k.thickness_min, k.thickness_min});
   for (const auto& s : k.spars)
-    limits_.push_back({"spar_" + text(s.x), "t/c at x = " + text(s.x), true, s.min, s.min});
+    limits_.push_back(
+        {"spar_" + general_text(s.x), "t/c at x = " + general_text(s.x), true, s.min, s.min});
   if (!std::isnan(k.te_gap_min))
     limits_.push_back({"te_gap_min", "trailing-edge gap", true, k.te_gap_min, 0.005});
   if (!std::isnan(k.te_gap_max))
@@ -157,7 +154,7 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
                            0.05});
   for (const auto& l : limits_) ids_.push_back(l.id);
   for (const auto& l : limits_)
-    names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + text(l.limit));
+    names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + general_text(l.limit));
 }
 
 Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) const {
