@@ -60,8 +60,8 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
   const DesignSpace space = design_space(c, b.shape);
   const SectionProblem problem(c, ev, space);
   const Evaluation e = problem.evaluate(space.start, c.analysis.verify_panels);
-  row.ok = e.ok;
-  row.status = e.status;
+  row.ok = e.ok();
+  row.status = e.status_text();
   row.objective = e.objective;
   const json detail = to_json(e.detail);
   const json& points = detail.at("points");
@@ -74,7 +74,7 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
       row.cm_worst = std::min(row.cm_worst, p.value("cm", std::nan("")));
   const json& clm = detail.at("cl_max");
   if (clm.value("found", false)) row.cl_max = clm.value("cl_max", std::nan(""));
-  row.feasible = e.ok;
+  row.feasible = e.ok();
   for (const auto& t : detail.at("constraints"))
     if (!t.value("satisfied", false)) {
       row.feasible = false;

@@ -33,8 +33,8 @@ Evaluation evaluation(double x0, bool ok) {
   e.x = {x0, 2.0};
   e.objective = x0 * x0;
   e.constraints = {x0 - 1.0};
-  e.ok = ok;
-  e.status = ok ? "ok" : "analysis failed: test";
+  e.status = ok ? Status::kConverged : Status::kFailed;
+  e.reason = ok ? "" : "analysis failed: test";
   e.detail.panels = 120;
   ConstraintRecord c;
   c.id = "sum";
@@ -66,16 +66,19 @@ std::string message_of(const fs::path& file, const std::string& fingerprint) {
 TEST(Checkpoint, ReadsBackWhatItWrote) {
   const fs::path dir = scratch("round_trip");
   const json j = two_evaluations(dir / "c.json");
-  EXPECT_EQ(j.at("version"), 2);
+  EXPECT_EQ(j.at("version"), 3);
   EXPECT_EQ(j.at("iterations"), 3);
+  EXPECT_EQ(j.at("evaluations")[1].at("status"), "analysis failed: test");  // as version 2
+  EXPECT_EQ(j.at("evaluations")[1].at("outcome").at("status"), "failed");
   const Checkpoint c = read_checkpoint(dir / "c.json", "case A", {"sum"});
   EXPECT_EQ(c.fingerprint, "case A");
   EXPECT_EQ(c.elapsed_s, 12.5);
   ASSERT_EQ(c.evaluations.size(), 2u);
   EXPECT_EQ(c.evaluations[0].x, (std::vector<double>{0.5, 2.0}));
-  EXPECT_TRUE(c.evaluations[0].ok);
-  EXPECT_FALSE(c.evaluations[1].ok);
-  EXPECT_EQ(c.evaluations[1].status, "analysis failed: test");
+  EXPECT_TRUE(c.evaluations[0].ok());
+  EXPECT_FALSE(c.evaluations[1].ok());
+  EXPECT_EQ(c.evaluations[1].status, Status::kFailed);
+  EXPECT_EQ(c.evaluations[1].reason, "analysis failed: test");
   EXPECT_EQ(c.evaluations[1].objective, 1.5 * 1.5);
   EXPECT_EQ(c.evaluations[1].detail.constraints.at(0).id, "sum");
   fs::remove_all(dir);
@@ -88,6 +91,8 @@ TEST(Checkpoint, CompletesVersion1Records) {
   json v1 = two_evaluations(dir / "c.json");
   v1["version"] = 1;
   for (auto& e : v1["evaluations"]) {
+    e.erase("outcome");
+    e["detail"]["cl_max"].erase("status");
     e["detail"]["constraints"][0].erase("id");
     e["detail"]["points"] = json::array({{{"point", "a"},
                                           {"scenario", "free"},
@@ -103,8 +108,53 @@ TEST(Checkpoint, CompletesVersion1Records) {
   ASSERT_EQ(c.evaluations[1].detail.constraints.size(), 1u);
   EXPECT_EQ(c.evaluations[1].detail.constraints[0].id, "sum");
   ASSERT_EQ(c.evaluations[1].detail.points.size(), 1u);
-  EXPECT_FALSE(c.evaluations[1].detail.points[0].result.converged);
+  EXPECT_FALSE(c.evaluations[1].detail.points[0].result.converged());
   EXPECT_EQ(c.evaluations[1].detail.points[0].result.reason, "not analysed");
+  EXPECT_EQ(c.evaluations[1].status, Status::kFailed);
+  EXPECT_EQ(c.evaluations[1].reason, "analysis failed: test");
+  fs::remove_all(dir);
+}
+
+// A version-2 checkpoint said how analyses ended in words of their own ("ok" and the "status"
+// text, a point's "converged", cl_max's "found"); the shared outcome is derived from them.
+TEST(Checkpoint, DerivesTheOutcomeOfVersion2Records) {
+  const fs::path dir = scratch("v2");
+  json v2 = two_evaluations(dir / "c.json");
+  v2["version"] = 2;
+  const json point{{"point", "a"},
+                   {"scenario", "free"},
+                   {"cl_target", 0.3},
+                   {"reynolds", 1e6},
+                   {"mach", 0},
+                   {"converged", false},
+                   {"reason", "not converged: max residual 1e-3"},
+                   {"residual", 1e-3},
+                   {"iterations", 30},
+                   {"alpha", 2.0},
+                   {"cl", 0.3},
+                   {"cd", 0.01},
+                   {"cd_friction", 0.006},
+                   {"cd_pressure", 0.004},
+                   {"cm", -0.05},
+                   {"transition_upper", 0.4},
+                   {"transition_lower", 0.6}};
+  for (auto& e : v2["evaluations"]) {
+    e.erase("outcome");
+    e["detail"]["cl_max"] = {{"found", true}, {"reason", ""}, {"cl_max", 1.5}, {"alpha", 14.0}};
+    e["detail"]["points"] = json::array({point});
+  }
+  v2["evaluations"][1]["detail"]["cl_max"]["found"] = false;
+  std::ofstream(dir / "c.json") << v2.dump();
+  const Checkpoint c = read_checkpoint(dir / "c.json", "case A", {"sum"});
+  ASSERT_EQ(c.evaluations.size(), 2u);
+  EXPECT_EQ(c.evaluations[0].status, Status::kConverged);
+  EXPECT_EQ(c.evaluations[0].reason, "");
+  EXPECT_EQ(c.evaluations[1].status, Status::kFailed);
+  EXPECT_EQ(c.evaluations[1].reason, "analysis failed: test");
+  EXPECT_EQ(c.evaluations[0].detail.points.at(0).result.status, Status::kNotConverged);
+  EXPECT_EQ(c.evaluations[0].detail.points.at(0).result.reason, "not converged: max residual 1e-3");
+  EXPECT_TRUE(c.evaluations[0].detail.cl_max.found());
+  EXPECT_EQ(c.evaluations[1].detail.cl_max.status, Status::kFailed);
   fs::remove_all(dir);
 }
 
@@ -124,9 +174,9 @@ TEST(Checkpoint, RefusesAnotherCaseAnotherVersionAMissingFileAndBrokenJson) {
   json j = two_evaluations(dir / "c.json");
   EXPECT_NE(message_of(dir / "c.json", "case B").find("another case"), std::string::npos);
 
-  j["version"] = 3;
+  j["version"] = 4;
   std::ofstream(dir / "c.json") << j.dump();
-  EXPECT_NE(message_of(dir / "c.json", "case A").find("not a fulmar checkpoint of version 2"),
+  EXPECT_NE(message_of(dir / "c.json", "case A").find("not a fulmar checkpoint of version 3"),
             std::string::npos);
 
   EXPECT_NE(message_of(dir / "none.json", "case A").find("no checkpoint to resume from"),

@@ -55,23 +55,23 @@ class Search {
           share_end_ = k + 1 < searches ? s_.options.max_evaluations * (k + 1) / searches
                                         : std::numeric_limits<int>::max();
           SearchResult part;
-          part.converged =
-              run_local(s_.options.algorithm, k == 0 ? p_.start : p_.extra_starts[size_t(k - 1)],
-                        part.stop_reason);
+          part.status = run_local(s_.options.algorithm,
+                                  k == 0 ? p_.start : p_.extra_starts[size_t(k - 1)], part.reason);
           restart_local(part);
-          r.converged = k == 0 ? part.converged : r.converged && part.converged;
-          finished_searches_ += (k == 0 ? "" : "; ") + search_label(k) + part.stop_reason;
+          // The first local search that did not converge gives the status.
+          if (k == 0 || r.converged()) r.status = part.status;
+          finished_searches_ += (k == 0 ? "" : "; ") + search_label(k) + part.reason;
         }
-        r.stop_reason = finished_searches_;
+        r.reason = finished_searches_;
       }
     } catch (const StopSearch&) {
-      r.converged = false;
+      r.status = Status::kStopped;
     }
     if (!stop_reason_.empty()) {
       // With several starts, what the finished local searches ended on comes first.
-      r.stop_reason = finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
-                      search_label(current_search_) + stop_reason_;
-      r.converged = false;
+      r.reason = finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
+                 search_label(current_search_) + stop_reason_;
+      r.status = Status::kStopped;
     }
     // The start design is always analysed, even when a limit stops the search at once.
     if (history_.empty()) {
@@ -91,7 +91,7 @@ class Search {
     if (r.best_any < 0) {
       double least = std::numeric_limits<double>::infinity();
       for (size_t i = 0; i < history_.size(); ++i) {
-        const double w = history_[i].ok ? worst_constraint(history_[i]) : 1e300;
+        const double w = history_[i].ok() ? worst_constraint(history_[i]) : 1e300;
         if (w < least) least = w, r.best_any = int(i);
       }
     }
@@ -132,20 +132,20 @@ class Search {
       e = p_.evaluate(x);
     } catch (const AnalysisFailure& ex) {
       e = Evaluation{};
-      e.ok = false;
-      e.status = std::string("analysis failed: ") + ex.what();
+      e.status = Status::kFailed;
+      e.reason = std::string("analysis failed: ") + ex.what();
       e.objective = std::numeric_limits<double>::quiet_NaN();
     }
     e.x = x;
     // A failed analysis must still give NLopt finite numbers that steer away from it.
     if (!std::isfinite(e.objective)) {
-      e.ok = false;
+      e.status = Status::kFailed;
       e.objective = 1e3;
     }
     e.constraints.resize(p_.constraint_names.size(), 1.0);
     for (double& c : e.constraints)
-      if (!std::isfinite(c)) c = 1.0, e.ok = false;
-    if (!e.ok && e.status.empty()) e.status = "failed";
+      if (!std::isfinite(c)) c = 1.0, e.status = Status::kFailed;
+    if (!e.ok() && e.reason.empty()) e.reason = "failed";
     return e;
   }
 
@@ -172,8 +172,8 @@ class Search {
       fresh[size_t(to_compute[k])] = safe_evaluate(missing[size_t(to_compute[k])]);
     });
     for (auto& e : fresh) {
-      if (!e.ok && s_.progress)
-        *s_.progress << "  analysis failed (kept out of the search): " << e.status << "\n";
+      if (!e.ok() && s_.progress)
+        *s_.progress << "  analysis failed (kept out of the search): " << e.reason << "\n";
       cache_[e.x] = history_.size();
       history_.push_back(std::move(e));
     }
@@ -207,12 +207,12 @@ class Search {
   std::vector<size_t> evaluated_stencil(const double* x, bool with_gradient,
                                         std::vector<double>& steps) {
     std::vector<size_t> idx = batch(stencil(x, with_gradient, steps));
-    if (!with_gradient || !history_[idx[0]].ok) return idx;
+    if (!with_gradient || !history_[idx[0]].ok()) return idx;
     const std::vector<double> centre(x, x + n_);
     std::vector<std::vector<double>> back;
     std::vector<size_t> which;
     for (size_t i = 0; i < n_; ++i) {
-      if (history_[idx[i + 1]].ok) continue;
+      if (history_[idx[i + 1]].ok()) continue;
       std::vector<double> xi = centre;
       xi[i] -= steps[i];
       if (xi[i] < p_.lower[i] || xi[i] > p_.upper[i]) {
@@ -226,7 +226,7 @@ class Search {
     const std::vector<size_t> b = batch(back);
     for (size_t k = 0; k < which.size(); ++k) {
       const size_t i = which[k];
-      if (history_[b[k]].ok) {
+      if (history_[b[k]].ok()) {
         idx[i + 1] = b[k];
         steps[i] = back[k][i] - centre[i];
       } else {
@@ -326,8 +326,10 @@ class Search {
       for (unsigned k = 0; k < m * n; ++k) grad[k] *= kGradientScale;
   }
 
-  // Returns whether NLopt ended on its own tolerance.
-  bool run_local(Algorithm algorithm, const std::vector<double>& x0, std::string& reason) {
+  // Returns kConverged when NLopt ended on its own tolerance, kStopped at the end of this
+  // search's share of the budget, kNotConverged or kFailed when NLopt gave up or failed; a
+  // limit or signal that ends the whole search throws StopSearch.
+  Status run_local(Algorithm algorithm, const std::vector<double>& x0, std::string& reason) {
     nlopt::algorithm a = nlopt::LD_SLSQP;
     switch (algorithm) {
       case Algorithm::slsqp:
@@ -376,38 +378,38 @@ class Search {
       switch (res) {
         case nlopt::XTOL_REACHED:
           reason = "converged: design change below xtol_rel";
-          return true;
+          return Status::kConverged;
         case nlopt::FTOL_REACHED:
           reason = "converged: objective change below ftol_rel";
-          return true;
+          return Status::kConverged;
         case nlopt::SUCCESS:
           reason = "converged";
-          return true;
+          return Status::kConverged;
         default:
           reason = "NLopt stopped with code " + std::to_string(int(res));
-          return false;
+          return Status::kNotConverged;
       }
     } catch (const nlopt::forced_stop&) {
       if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (share_spent_ && stop_reason_.empty()) {
         share_spent_ = false;
         reason = "its share of the evaluation budget spent";
-        return false;
+        return Status::kStopped;
       }
       if (stop_reason_.empty()) reason = "stopped";
       throw StopSearch{};
     } catch (const nlopt::roundoff_limited&) {
       reason = "NLopt stopped: roundoff limited (no further progress possible)";
-      return false;
+      return Status::kNotConverged;
     } catch (const std::invalid_argument& ex) {  // NLopt's NLOPT_INVALID_ARGS
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
-      return false;
+      return Status::kFailed;
     } catch (const std::runtime_error& ex) {  // NLopt's NLOPT_FAILURE (callbacks' errors: above)
       if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
-      return false;
+      return Status::kFailed;
     }
   }
 
@@ -423,22 +425,22 @@ class Search {
   void restart_local(SearchResult& r) {
     if (s_.options.algorithm != Algorithm::slsqp && s_.options.algorithm != Algorithm::mma) return;
     double previous = std::numeric_limits<double>::infinity();
-    for (int k = 1; k <= kMaxRestarts && r.converged; ++k) {
+    for (int k = 1; k <= kMaxRestarts && r.converged(); ++k) {
       const int best = best_feasible(history_, s_.options.constraint_tol);
       if (best < 0) return;
       const double f = history_[size_t(best)].objective;
       if (k > 1 && !(f < previous - kRestartGain * std::abs(previous))) return;
       previous = f;
       std::string reason;
-      r.converged = run_local(s_.options.algorithm, history_[size_t(best)].x, reason);
-      r.stop_reason = reason + " (after " + std::to_string(k) +
-                      (k == 1 ? " restart" : " restarts") + " from the best feasible design)";
+      r.status = run_local(s_.options.algorithm, history_[size_t(best)].x, reason);
+      r.reason = reason + " (after " + std::to_string(k) + (k == 1 ? " restart" : " restarts") +
+                 " from the best feasible design)";
     }
   }
 
   void run_multistart(SearchResult& r) {
     std::mt19937_64 rng(s_.options.seed);
-    bool all = true;
+    Status all = Status::kConverged;  // the first start that did not converge gives the status
     std::string reasons;
     for (int k = 0; k < s_.options.starts; ++k) {
       std::vector<double> x0 = p_.start;
@@ -452,11 +454,12 @@ class Search {
         }
       }
       std::string reason;
-      all = run_local(Algorithm::slsqp, x0, reason) && all;
+      const Status s = run_local(Algorithm::slsqp, x0, reason);
+      if (all == Status::kConverged) all = s;
       reasons += (reasons.empty() ? "" : "; ") + ("start " + std::to_string(k + 1) + ": " + reason);
     }
-    r.converged = all;
-    r.stop_reason = reasons;
+    r.status = all;
+    r.reason = reasons;
   }
 
   void write_checkpoint() const {

@@ -41,13 +41,17 @@ struct SearchProblem {
   std::function<Evaluation(const std::vector<double>& x)> evaluate;
 };
 
-struct SearchResult {
+// How the search ended (Outcome): converged when every local search met NLopt's tolerance;
+// otherwise the status of the first one that did not: stopped by a limit (evaluation budget or
+// its share of it, time limit) or a signal, not_converged when NLopt gave up (roundoff, another
+// stop code), failed when NLopt failed. The reason lists what each local search ended on
+// ("converged: ...", "evaluation budget of 400 analyses spent", "time limit of 60 s reached").
+struct SearchResult : Outcome {
+  bool converged() const { return status == Status::kConverged; }
   std::vector<Evaluation> history;  // every distinct design analysed, in order
   int best = -1;                    // index of the best feasible design in history, -1: none
   int best_any = -1;                // the least infeasible (or best feasible) design
-  bool converged = false;           // NLopt met its tolerance (not stopped by a limit)
-  std::string stop_reason;          // "converged: ...", "evaluation budget", "time limit", ...
-  bool interrupted = false;         // stopped by a signal
+  bool interrupted = false;         // stopped by a signal (status kStopped)
   int iterations = 0;
   double elapsed_s = 0;  // wall time summed over resumed runs
   int replayed = 0;      // evaluations taken from the checkpoint on resume

@@ -183,8 +183,7 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
   if (!std::isnan(k.thickness_x_max)) values.push_back(g.thickness_x);
 
   e.detail.geometry = g;
-  e.ok = true;
-  e.status = "ok";
+  e.status = Status::kConverged;
   double objective = kFailedObjective;
   ClMaxResult clmax;
   clmax.reason = "not analysed";
@@ -192,8 +191,8 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
 
   if (g.min_shape_gap <= 0) {
     // Crossing surfaces: no flow analysis can mean anything.
-    e.ok = false;
-    e.status = "invalid geometry: the surfaces cross (thickness <= 0 somewhere)";
+    e.status = Status::kFailed;
+    e.reason = "invalid geometry: the surfaces cross (thickness <= 0 somewhere)";
   } else {
     AnalysisRequest request;
     request.panels = panels;
@@ -210,8 +209,8 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     results = a.points;
     clmax = a.cl_max;
     if (results.size() != request.points.size()) {
-      e.ok = false;
-      e.status = "analysis failed: the evaluator returned " + std::to_string(results.size()) +
+      e.status = Status::kFailed;
+      e.reason = "analysis failed: the evaluator returned " + std::to_string(results.size()) +
                  " of " + std::to_string(request.points.size()) + " points";
       results.resize(request.points.size());
     }
@@ -220,28 +219,28 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     for (const auto& p : c.points)
       for (const auto& s : c.scenarios) {
         const PointResult& r = results[i++];
-        if (e.ok && (!r.converged || !std::isfinite(r.cd) || r.cd <= 0)) {
-          e.ok = false;
-          e.status = "analysis failed at " + scenario_label(p, s, c.scenarios.size()) + ": " +
+        if (e.ok() && (!r.converged() || !std::isfinite(r.cd) || r.cd <= 0)) {
+          e.status = Status::kFailed;
+          e.reason = "analysis failed at " + scenario_label(p, s, c.scenarios.size()) + ": " +
                      (r.reason.empty() ? std::string("not converged") : r.reason);
         }
         sum += p.weight * s.weight * r.cd;
         weights += p.weight * s.weight;
       }
-    if (request.cl_max_at && e.ok && (!clmax.found || !std::isfinite(clmax.cl_max))) {
-      e.ok = false;
-      e.status =
+    if (request.cl_max_at && e.ok() && (!clmax.found() || !std::isfinite(clmax.cl_max))) {
+      e.status = Status::kFailed;
+      e.reason =
           "cl_max not found: " + (clmax.reason.empty() ? std::string("no peak") : clmax.reason);
     }
-    if (e.ok) objective = 100.0 * sum / weights;
+    if (e.ok()) objective = 100.0 * sum / weights;
   }
-  if (!std::isnan(k.cl_max_min)) values.push_back(clmax.found ? clmax.cl_max : nan);
+  if (!std::isnan(k.cl_max_min)) values.push_back(clmax.found() ? clmax.cl_max : nan);
   {
     size_t i = 0;
     for (const auto& p : c.points)
       for (size_t s = 0; s < c.scenarios.size(); ++s, ++i)
         if (!std::isnan(p.cm_min))
-          values.push_back(i < results.size() && results[i].converged ? results[i].cm : nan);
+          values.push_back(i < results.size() && results[i].converged() ? results[i].cm : nan);
   }
   {
     size_t i = 0;

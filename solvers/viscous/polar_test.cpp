@@ -26,7 +26,6 @@ ViscousResult point(double alpha, double cl, double cd, double cm, bool converge
   r.cl = cl;
   r.cd = cd;
   r.cm = cm;
-  r.converged = converged;
   r.status = converged ? SolveStatus::kConverged : SolveStatus::kNotConverged;
   return r;
 }
@@ -245,7 +244,7 @@ TEST(SweepPolar, MarchesOutwardFromZeroLiftWithWarmStarts) {
   ASSERT_EQ(p.points.size(), 8u);
   for (int i = 0; i < 8; ++i) {
     EXPECT_DOUBLE_EQ(p.points[i].alpha, -3.0 + i);
-    EXPECT_TRUE(p.points[i].converged);
+    EXPECT_TRUE(p.points[i].converged());
   }
   ASSERT_EQ(s.calls.size(), 8u);
   EXPECT_DOUBLE_EQ(s.calls[0].first, -1.0);
@@ -268,7 +267,7 @@ TEST(SweepPolar, SubStepsRecoverFailedWarmStarts) {
   o.alpha_from = 0;
   o.alpha_to = 6;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   for (const auto& [a, w] : s.calls) {
     if (!std::isnan(w)) {
       EXPECT_LE(std::abs(a - w), 1.0 + 1e-12);
@@ -288,7 +287,7 @@ TEST(SweepPolar, LeadInFromZeroLiftWhenTheGridDoesNotReachIt) {
   o.alpha_from = 8;
   o.alpha_to = 12;
   const Polar p = sweep_polar(s.solver(), 0.4, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   ASSERT_FALSE(s.calls.empty());
   EXPECT_DOUBLE_EQ(s.calls[0].first, 0.4);  // the lead-in starts cold at zero lift
   EXPECT_TRUE(std::isnan(s.calls[0].second));
@@ -310,7 +309,7 @@ TEST(SweepPolar, FailedAngleIsRetriedFromTheFarSide) {
   o.alpha_from = 5;
   o.alpha_to = 11;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   ASSERT_FALSE(s.calls.empty());
   EXPECT_DOUBLE_EQ(s.calls.back().first, 8.0);
   EXPECT_DOUBLE_EQ(s.calls.back().second, 9.0);
@@ -325,7 +324,7 @@ TEST(SweepPolar, FailedStartIsBackFilledFromANeighbour) {
   o.alpha_from = -2;
   o.alpha_to = 2;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   EXPECT_DOUBLE_EQ(s.calls.back().first, 0.0);
   EXPECT_FALSE(std::isnan(s.calls.back().second));
 }
@@ -346,7 +345,7 @@ TEST(SweepPolar, AJumpToAnotherBranchIsCheckedBySubSteps) {
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
-    EXPECT_TRUE(r.converged) << r.alpha;
+    EXPECT_TRUE(r.converged()) << r.alpha;
     EXPECT_NEAR(r.cl, 0.1 * r.alpha, 1e-12) << r.alpha;
   }
   EXPECT_GT(calls, 9);  // the sub-steps were made
@@ -362,7 +361,7 @@ TEST(SweepPolar, ARealLiftJumpIsKept) {
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
-    EXPECT_TRUE(r.converged) << r.alpha;
+    EXPECT_TRUE(r.converged()) << r.alpha;
     EXPECT_NEAR(r.cl, 0.1 * r.alpha - (r.alpha > 6.2 ? 0.3 : 0.0), 1e-12) << r.alpha;
   }
   EXPECT_TRUE(p.summary.cl_max_bracketed);
@@ -379,7 +378,7 @@ TEST(SweepPolar, StallBeyondAnAngleGivesAnUnbracketedMaximum) {
   o.alpha_to = 13;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
   ASSERT_EQ(p.points.size(), 8u);
-  for (const ViscousResult& r : p.points) EXPECT_EQ(r.converged, r.alpha <= 10.0) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_EQ(r.converged(), r.alpha <= 10.0) << r.alpha;
   EXPECT_DOUBLE_EQ(p.points.back().alpha, 13.0);
   ASSERT_TRUE(p.summary.has_cl_max);
   EXPECT_FALSE(p.summary.cl_max_bracketed);
@@ -469,7 +468,7 @@ ViscousSolver section_solver(const std::string& naca, double re) {
 // The number of converged points of a polar.
 int converged_points(const Polar& p) {
   int n = 0;
-  for (const ViscousResult& r : p.points) n += r.converged;
+  for (const ViscousResult& r : p.points) n += r.converged();
   return n;
 }
 
@@ -534,7 +533,7 @@ TEST(SweepPolar, Naca0012MaximumLiftAtSixMillion) {
   ASSERT_TRUE(s.cl_max_bracketed) << s.note;
   double grid_max = -1.0, grid_alpha = 0.0;
   for (const ViscousResult& r : p.points) {
-    if (r.converged && r.cl > grid_max) {
+    if (r.converged() && r.cl > grid_max) {
       grid_max = r.cl;
       grid_alpha = r.alpha;
     }
@@ -608,7 +607,7 @@ TEST(SweepPolar, CoarseStepsFollowTheFineStepBranchNearStall) {
   for (int i = 0; i < 7; ++i) {
     const ViscousResult& c = pc.points[static_cast<std::size_t>(i)];
     const ViscousResult& f = pf.points[static_cast<std::size_t>(4 * i)];
-    ASSERT_TRUE(c.converged && f.converged) << c.alpha;
+    ASSERT_TRUE(c.converged() && f.converged()) << c.alpha;
     EXPECT_NEAR(c.cl, f.cl, 1e-3) << c.alpha << " deg";
   }
 }
