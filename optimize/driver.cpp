@@ -125,8 +125,8 @@ class Search {
   }
 
   Evaluation safe_evaluate(const std::vector<double>& x) const {
-    // A numerical failure is a status of the evaluation (AnalysisFailure, or ok = false from the
-    // evaluator); anything else thrown (InputError, a program error) ends the search.
+    // A numerical failure is a status of the evaluation (AnalysisFailure, or status kFailed from
+    // the evaluator); anything else thrown (InputError, a program error) ends the search.
     Evaluation e;
     try {
       e = p_.evaluate(x);

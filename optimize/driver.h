@@ -19,9 +19,9 @@
 namespace fulmar::optimize {
 
 // Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
-// broke down on it): the search records it as a failed evaluation (ok = false, the message in
-// the status) and goes on. Anything else an evaluate function throws (InputError, a program error)
-// ends the search and propagates out of run_search.
+// broke down on it): the search records it as a failed evaluation (status kFailed, the message
+// in the reason) and goes on. Anything else an evaluate function throws (InputError, a program
+// error) ends the search and propagates out of run_search.
 struct AnalysisFailure : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
