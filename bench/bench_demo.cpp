@@ -8,7 +8,6 @@
 //    at the case's verification panels exactly as the optimum is verified, and judged by the same
 //    constraint table. The optimum should beat every feasible grid section in cruise cd.
 #include <algorithm>
-#include <atomic>
 #include <chrono>
 #include <cmath>
 #include <cstdio>
@@ -17,10 +16,10 @@
 #include <iostream>
 #include <mutex>
 #include <string>
-#include <thread>
 #include <vector>
 
 #include "common/error.h"
+#include "common/parallel_for.h"
 #include "optimize/case_file.h"
 #include "optimize/run.h"
 #include "optimize/section_problem.h"
@@ -61,8 +60,8 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
   const DesignSpace space = design_space(c, b.shape);
   const SectionProblem problem(c, ev, space);
   const Evaluation e = problem.evaluate(space.start, c.analysis.verify_panels);
-  row.ok = e.ok;
-  row.status = e.status;
+  row.ok = e.ok();
+  row.status = e.status_text();
   row.objective = e.objective;
   const json detail = to_json(e.detail);
   const json& points = detail.at("points");
@@ -75,7 +74,7 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
       row.cm_worst = std::min(row.cm_worst, p.value("cm", std::nan("")));
   const json& clm = detail.at("cl_max");
   if (clm.value("found", false)) row.cl_max = clm.value("cl_max", std::nan(""));
-  row.feasible = e.ok;
+  row.feasible = e.ok();
   for (const auto& t : detail.at("constraints"))
     if (!t.value("satisfied", false)) {
       row.feasible = false;
@@ -90,7 +89,7 @@ int main(int argc, char** argv) {
   std::filesystem::path case_path = "cases/demo.json";
   std::filesystem::path out = std::filesystem::temp_directory_path() / "fulmar-bench-demo";
   bool grid_only = false;
-  int threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+  int threads = static_cast<int>(fulmar::core_count());
   for (int i = 1; i < argc; ++i) {
     if (!std::strcmp(argv[i], "--grid-only")) {
       grid_only = true;
@@ -147,24 +146,18 @@ int main(int argc, char** argv) {
           grid.push_back(std::to_string(m) + std::to_string(p) + std::to_string(t));
     }
     std::vector<GridRow> rows(grid.size());
-    std::atomic<std::size_t> next{0};
     std::mutex print;
     const auto t1 = std::chrono::steady_clock::now();
-    std::vector<std::thread> pool;
-    for (int k = 0; k < threads; ++k)
-      pool.emplace_back([&] {
-        for (std::size_t i; (i = next++) < grid.size();) {
-          try {
-            rows[i] = evaluate_naca(c, *ev, grid[i]);
-          } catch (const std::exception& e) {
-            rows[i].naca = grid[i];
-            rows[i].status = e.what();
-          }
-          std::lock_guard<std::mutex> lock(print);
-          std::fprintf(stderr, "\r  grid %zu/%zu", i + 1, grid.size());
-        }
-      });
-    for (auto& th : pool) th.join();
+    fulmar::parallel_for(grid.size(), unsigned(threads), [&](std::size_t i) {
+      try {
+        rows[i] = evaluate_naca(c, *ev, grid[i]);
+      } catch (const std::exception& e) {
+        rows[i].naca = grid[i];
+        rows[i].status = e.what();
+      }
+      std::lock_guard<std::mutex> lock(print);
+      std::fprintf(stderr, "\r  grid %zu/%zu", i + 1, grid.size());
+    });
     std::printf("\nNACA 4-digit grid (%zu sections, %d panels, %.0f s wall on %d threads)\n",
                 grid.size(), c.analysis.verify_panels, seconds_since(t1), threads);
     std::printf("%-6s %8s %9s %9s %7s %8s %9s  %s\n", "NACA", "fit dev", "cd cruise", "cd pt2",

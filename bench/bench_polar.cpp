@@ -80,11 +80,11 @@ void point_times() {
   const double t_warm = min_cpu(5, [&] { warm = solver.solve_from(4.0, &neighbour.state); });
   std::printf("1. NACA 0012 Re 6e6 160 panels, alpha 4 (thread CPU, min of 5)\n");
   std::printf("   cold start: %7.1f ms, %2d Newton iterations, converged %d\n", 1e3 * t_cold,
-              cold.iterations, cold.converged);
+              cold.iterations, cold.converged());
   std::printf(
       "   warm from 3.5 deg (neighbour converged %d): %7.1f ms, %2d iterations, "
       "converged %d\n",
-      neighbour.converged, 1e3 * t_warm, warm.iterations, warm.converged);
+      neighbour.converged(), 1e3 * t_warm, warm.iterations, warm.converged());
 }
 
 void polar_times() {
@@ -96,7 +96,7 @@ void polar_times() {
   Polar p;
   const double t = min_cpu(3, [&] { p = sweep_polar(solver, o); });
   int converged = 0;
-  for (const ViscousResult& r : p.points) converged += r.converged;
+  for (const ViscousResult& r : p.points) converged += r.converged();
   std::printf(
       "2. 41-point polar NACA 0012 Re 6e6, -10..10 step 0.5 (thread CPU, min of 3): "
       "%.2f s, %d/%zu converged, %d solves (%.0f ms per solve)\n",
@@ -136,8 +136,8 @@ void robustness() {
       for (const ViscousResult& r : p.points) {
         if (r.alpha > end) continue;
         ++n;
-        ok += r.converged;
-        if (!r.converged) {
+        ok += r.converged();
+        if (!r.converged()) {
           char buf[160];
           std::snprintf(buf, sizeof buf, " %g: %.60s;", r.alpha, r.reason.c_str());
           failures += buf;
@@ -182,7 +182,7 @@ void sharp_nose() {
     o.refine_cl_max = false;
     const Polar p = sweep_polar(solver, o);
     int ok = 0;
-    for (const ViscousResult& r : p.points) ok += r.converged;
+    for (const ViscousResult& r : p.points) ok += r.converged();
     std::printf("   %3d panels: %2d/%zu converged, cl_max %s\n", panels, ok, p.points.size(),
                 p.summary.has_cl_max ? std::to_string(p.summary.cl_max).c_str() : "-");
   }
@@ -220,10 +220,10 @@ void regression_polars(const char* points_path) {
       solves += p.solves;
       for (const ViscousResult& r : p.points) {
         ++points;
-        ok += r.converged;
+        ok += r.converged();
         if (out)
           std::fprintf(out, "%s %g %g %d %.10g %.10g %.10g\n", name, re, r.alpha,
-                       r.converged ? 1 : 0, r.cl, r.cd, r.cm);
+                       r.converged() ? 1 : 0, r.cl, r.cd, r.cm);
       }
     }
   if (out) std::fclose(out);

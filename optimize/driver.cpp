@@ -5,48 +5,23 @@
 #include <cmath>
 #include <cstdio>
 #include <exception>
-#include <fstream>
 #include <limits>
 #include <map>
-#include <mutex>
 #include <nlopt.hpp>
 #include <ostream>
 #include <random>
 #include <sstream>
-#include <thread>
 #include <utility>
 
-#include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/number_text.h"
+#include "common/parallel_for.h"
+#include "optimize/checkpoint.h"
 
 namespace fulmar::optimize {
 namespace {
 
-using nlohmann::json;
 using Clock = std::chrono::steady_clock;
-
-constexpr const char* kCheckpointFormat = "fulmar-checkpoint";
-// Version 2 added the constraints' ids to the records (and a full record for every evaluation);
-// version 1 is still read: upgrade_v1_detail completes its records.
-constexpr int kCheckpointVersion = 2;
-
-// A version-1 record made whole: a null one (an analysis that threw) becomes an empty record,
-// a design point without results (no analysis ran) one that did not converge, and each
-// constraint row gets its id from the problem (same case, the fingerprint guarantees it, so the
-// same constraints in the same order).
-json upgrade_v1_detail(json d, const std::vector<std::string>& ids) {
-  if (d.is_null()) return to_json(EvaluationRecord{});
-  PointResult none;
-  none.reason = "not analysed";
-  const json not_analysed = to_json(none);
-  if (d.contains("points"))
-    for (auto& p : d["points"])
-      if (p.is_object() && !p.contains("converged")) p.update(not_analysed);
-  if (d.contains("constraints") && d["constraints"].is_array())
-    for (size_t k = 0; k < d["constraints"].size(); ++k)
-      if (!d["constraints"][k].contains("id") && k < ids.size()) d["constraints"][k]["id"] = ids[k];
-  return d;
-}
 
 // Thrown inside the NLopt callbacks to end the search (NLopt turns it into a forced stop).
 struct StopSearch {};
@@ -58,45 +33,11 @@ std::string clock_text(double seconds) {
   return buf;
 }
 
-std::string num(double v, int precision = 6) {
-  if (!std::isfinite(v)) return "-";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", precision, v);
-  return buf;
-}
-
-template <class F>
-void parallel_for(int n, int threads, F&& f) {
-  threads = std::max(1, std::min(threads, n));
-  if (threads == 1) {
-    for (int i = 0; i < n; ++i) f(i);
-    return;
-  }
-  // An exception of a worker (an input or program error of the analysis) ends the other workers
-  // after their current item and is thrown again here, in the calling thread.
-  std::atomic<int> next{0};
-  std::exception_ptr first_error;
-  std::mutex error_mutex;
-  std::vector<std::thread> pool;
-  for (int t = 0; t < threads; ++t)
-    pool.emplace_back([&] {
-      try {
-        for (int i = next++; i < n; i = next++) f(i);
-      } catch (...) {  // carried to the calling thread, not swallowed
-        const std::lock_guard<std::mutex> lock(error_mutex);
-        if (!first_error) first_error = std::current_exception();
-        next = n;
-      }
-    });
-  for (auto& th : pool) th.join();
-  if (first_error) std::rethrow_exception(first_error);
-}
-
 class Search {
  public:
   Search(const SearchProblem& problem, const SearchSettings& settings)
       : p_(problem), s_(settings), n_(problem.start.size()) {
-    threads_ = s_.threads > 0 ? s_.threads : int(std::max(1u, std::thread::hardware_concurrency()));
+    threads_ = s_.threads > 0 ? s_.threads : int(core_count());
     if (s_.resume) load_checkpoint();
     started_ = Clock::now();
   }
@@ -114,23 +55,23 @@ class Search {
           share_end_ = k + 1 < searches ? s_.options.max_evaluations * (k + 1) / searches
                                         : std::numeric_limits<int>::max();
           SearchResult part;
-          part.converged =
-              run_local(s_.options.algorithm, k == 0 ? p_.start : p_.extra_starts[size_t(k - 1)],
-                        part.stop_reason);
+          part.status = run_local(s_.options.algorithm,
+                                  k == 0 ? p_.start : p_.extra_starts[size_t(k - 1)], part.reason);
           restart_local(part);
-          r.converged = k == 0 ? part.converged : r.converged && part.converged;
-          finished_searches_ += (k == 0 ? "" : "; ") + search_label(k) + part.stop_reason;
+          // The first local search that did not converge gives the status.
+          if (k == 0 || r.converged()) r.status = part.status;
+          finished_searches_ += (k == 0 ? "" : "; ") + search_label(k) + part.reason;
         }
-        r.stop_reason = finished_searches_;
+        r.reason = finished_searches_;
       }
     } catch (const StopSearch&) {
-      r.converged = false;
+      r.status = Status::kStopped;
     }
     if (!stop_reason_.empty()) {
       // With several starts, what the finished local searches ended on comes first.
-      r.stop_reason = finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
-                      search_label(current_search_) + stop_reason_;
-      r.converged = false;
+      r.reason = finished_searches_ + (finished_searches_.empty() ? "" : "; ") +
+                 search_label(current_search_) + stop_reason_;
+      r.status = Status::kStopped;
     }
     // The start design is always analysed, even when a limit stops the search at once.
     if (history_.empty()) {
@@ -150,7 +91,7 @@ class Search {
     if (r.best_any < 0) {
       double least = std::numeric_limits<double>::infinity();
       for (size_t i = 0; i < history_.size(); ++i) {
-        const double w = history_[i].ok ? worst_constraint(history_[i]) : 1e300;
+        const double w = history_[i].ok() ? worst_constraint(history_[i]) : 1e300;
         if (w < least) least = w, r.best_any = int(i);
       }
     }
@@ -178,33 +119,33 @@ class Search {
       throw nlopt::forced_stop();
     }
     if (elapsed() >= s_.options.time_limit_s) {
-      stop_reason_ = "time limit of " + num(s_.options.time_limit_s) + " s reached";
+      stop_reason_ = "time limit of " + general_text(s_.options.time_limit_s) + " s reached";
       throw nlopt::forced_stop();
     }
   }
 
   Evaluation safe_evaluate(const std::vector<double>& x) const {
-    // A numerical failure is a status of the evaluation (AnalysisFailure, or ok = false from the
-    // evaluator); anything else thrown (InputError, a program error) ends the search.
+    // A numerical failure is a status of the evaluation (AnalysisFailure, or status kFailed from
+    // the evaluator); anything else thrown (InputError, a program error) ends the search.
     Evaluation e;
     try {
       e = p_.evaluate(x);
     } catch (const AnalysisFailure& ex) {
       e = Evaluation{};
-      e.ok = false;
-      e.status = std::string("analysis failed: ") + ex.what();
+      e.status = Status::kFailed;
+      e.reason = std::string("analysis failed: ") + ex.what();
       e.objective = std::numeric_limits<double>::quiet_NaN();
     }
     e.x = x;
     // A failed analysis must still give NLopt finite numbers that steer away from it.
     if (!std::isfinite(e.objective)) {
-      e.ok = false;
+      e.status = Status::kFailed;
       e.objective = 1e3;
     }
     e.constraints.resize(p_.constraint_names.size(), 1.0);
     for (double& c : e.constraints)
-      if (!std::isfinite(c)) c = 1.0, e.ok = false;
-    if (!e.ok && e.status.empty()) e.status = "failed";
+      if (!std::isfinite(c)) c = 1.0, e.status = Status::kFailed;
+    if (!e.ok() && e.reason.empty()) e.reason = "failed";
     return e;
   }
 
@@ -227,11 +168,12 @@ class Search {
         to_compute.push_back(int(i));
       }
     }
-    parallel_for(int(to_compute.size()), threads_,
-                 [&](int k) { fresh[to_compute[k]] = safe_evaluate(missing[to_compute[k]]); });
+    fulmar::parallel_for(to_compute.size(), unsigned(threads_), [&](std::size_t k) {
+      fresh[size_t(to_compute[k])] = safe_evaluate(missing[size_t(to_compute[k])]);
+    });
     for (auto& e : fresh) {
-      if (!e.ok && s_.progress)
-        *s_.progress << "  analysis failed (kept out of the search): " << e.status << "\n";
+      if (!e.ok() && s_.progress)
+        *s_.progress << "  analysis failed (kept out of the search): " << e.reason << "\n";
       cache_[e.x] = history_.size();
       history_.push_back(std::move(e));
     }
@@ -265,12 +207,12 @@ class Search {
   std::vector<size_t> evaluated_stencil(const double* x, bool with_gradient,
                                         std::vector<double>& steps) {
     std::vector<size_t> idx = batch(stencil(x, with_gradient, steps));
-    if (!with_gradient || !history_[idx[0]].ok) return idx;
+    if (!with_gradient || !history_[idx[0]].ok()) return idx;
     const std::vector<double> centre(x, x + n_);
     std::vector<std::vector<double>> back;
     std::vector<size_t> which;
     for (size_t i = 0; i < n_; ++i) {
-      if (history_[idx[i + 1]].ok) continue;
+      if (history_[idx[i + 1]].ok()) continue;
       std::vector<double> xi = centre;
       xi[i] -= steps[i];
       if (xi[i] < p_.lower[i] || xi[i] > p_.upper[i]) {
@@ -284,7 +226,7 @@ class Search {
     const std::vector<size_t> b = batch(back);
     for (size_t k = 0; k < which.size(); ++k) {
       const size_t i = which[k];
-      if (history_[b[k]].ok) {
+      if (history_[b[k]].ok()) {
         idx[i + 1] = b[k];
         steps[i] = back[k][i] - centre[i];
       } else {
@@ -331,9 +273,10 @@ class Search {
     const double t = elapsed();
     std::ostringstream line;
     line << "iteration " << iterations_ << "  evaluations " << history_.size() << "/"
-         << s_.options.max_evaluations << "  objective " << num(e.objective)
-         << "  worst constraint " << num(worst, 3) << " (" << worst_name << ")"
-         << "  best feasible " << (best >= 0 ? num(history_[best].objective) : std::string("none"))
+         << s_.options.max_evaluations << "  objective " << general_text(e.objective)
+         << "  worst constraint " << general_text(worst, 3) << " (" << worst_name << ")"
+         << "  best feasible "
+         << (best >= 0 ? general_text(history_[best].objective) : std::string("none"))
          << "  elapsed " << clock_text(t) << "  left "
          << std::max(0, s_.options.max_evaluations - int(history_.size())) << " evaluations, "
          << clock_text(std::max(0.0, s_.options.time_limit_s - t))
@@ -383,8 +326,10 @@ class Search {
       for (unsigned k = 0; k < m * n; ++k) grad[k] *= kGradientScale;
   }
 
-  // Returns whether NLopt ended on its own tolerance.
-  bool run_local(Algorithm algorithm, const std::vector<double>& x0, std::string& reason) {
+  // Returns kConverged when NLopt ended on its own tolerance, kStopped at the end of this
+  // search's share of the budget, kNotConverged or kFailed when NLopt gave up or failed; a
+  // limit or signal that ends the whole search throws StopSearch.
+  Status run_local(Algorithm algorithm, const std::vector<double>& x0, std::string& reason) {
     nlopt::algorithm a = nlopt::LD_SLSQP;
     switch (algorithm) {
       case Algorithm::slsqp:
@@ -433,38 +378,38 @@ class Search {
       switch (res) {
         case nlopt::XTOL_REACHED:
           reason = "converged: design change below xtol_rel";
-          return true;
+          return Status::kConverged;
         case nlopt::FTOL_REACHED:
           reason = "converged: objective change below ftol_rel";
-          return true;
+          return Status::kConverged;
         case nlopt::SUCCESS:
           reason = "converged";
-          return true;
+          return Status::kConverged;
         default:
           reason = "NLopt stopped with code " + std::to_string(int(res));
-          return false;
+          return Status::kNotConverged;
       }
     } catch (const nlopt::forced_stop&) {
       if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (share_spent_ && stop_reason_.empty()) {
         share_spent_ = false;
         reason = "its share of the evaluation budget spent";
-        return false;
+        return Status::kStopped;
       }
       if (stop_reason_.empty()) reason = "stopped";
       throw StopSearch{};
     } catch (const nlopt::roundoff_limited&) {
       reason = "NLopt stopped: roundoff limited (no further progress possible)";
-      return false;
+      return Status::kNotConverged;
     } catch (const std::invalid_argument& ex) {  // NLopt's NLOPT_INVALID_ARGS
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
-      return false;
+      return Status::kFailed;
     } catch (const std::runtime_error& ex) {  // NLopt's NLOPT_FAILURE (callbacks' errors: above)
       if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
-      return false;
+      return Status::kFailed;
     }
   }
 
@@ -480,22 +425,22 @@ class Search {
   void restart_local(SearchResult& r) {
     if (s_.options.algorithm != Algorithm::slsqp && s_.options.algorithm != Algorithm::mma) return;
     double previous = std::numeric_limits<double>::infinity();
-    for (int k = 1; k <= kMaxRestarts && r.converged; ++k) {
+    for (int k = 1; k <= kMaxRestarts && r.converged(); ++k) {
       const int best = best_feasible(history_, s_.options.constraint_tol);
       if (best < 0) return;
       const double f = history_[size_t(best)].objective;
       if (k > 1 && !(f < previous - kRestartGain * std::abs(previous))) return;
       previous = f;
       std::string reason;
-      r.converged = run_local(s_.options.algorithm, history_[size_t(best)].x, reason);
-      r.stop_reason = reason + " (after " + std::to_string(k) +
-                      (k == 1 ? " restart" : " restarts") + " from the best feasible design)";
+      r.status = run_local(s_.options.algorithm, history_[size_t(best)].x, reason);
+      r.reason = reason + " (after " + std::to_string(k) + (k == 1 ? " restart" : " restarts") +
+                 " from the best feasible design)";
     }
   }
 
   void run_multistart(SearchResult& r) {
     std::mt19937_64 rng(s_.options.seed);
-    bool all = true;
+    Status all = Status::kConverged;  // the first start that did not converge gives the status
     std::string reasons;
     for (int k = 0; k < s_.options.starts; ++k) {
       std::vector<double> x0 = p_.start;
@@ -509,53 +454,29 @@ class Search {
         }
       }
       std::string reason;
-      all = run_local(Algorithm::slsqp, x0, reason) && all;
+      const Status s = run_local(Algorithm::slsqp, x0, reason);
+      if (all == Status::kConverged) all = s;
       reasons += (reasons.empty() ? "" : "; ") + ("start " + std::to_string(k + 1) + ": " + reason);
     }
-    r.converged = all;
-    r.stop_reason = reasons;
+    r.status = all;
+    r.reason = reasons;
   }
 
   void write_checkpoint() const {
     if (s_.checkpoint.empty()) return;
-    json evals = json::array();
-    for (const auto& e : history_) evals.push_back(to_json(e));
+    std::vector<const Evaluation*> evals;
+    for (const auto& e : history_) evals.push_back(&e);
     // Not yet replayed evaluations stay in the checkpoint so an interrupted replay loses nothing.
-    for (const auto& [x, e] : replay_) evals.push_back(to_json(e));
-    json j{{"format", kCheckpointFormat},   {"version", kCheckpointVersion},
-           {"fingerprint", s_.fingerprint}, {"elapsed_s", elapsed()},
-           {"iterations", iterations_},     {"evaluations", std::move(evals)}};
-    write_file_atomically(s_.checkpoint, j.dump() + "\n");
+    for (const auto& [x, e] : replay_) evals.push_back(&e);
+    optimize::write_checkpoint(s_.checkpoint, s_.fingerprint, elapsed(), iterations_, evals);
   }
 
   void load_checkpoint() {
-    std::ifstream in(s_.checkpoint, std::ios::binary);
-    if (!in)
-      throw InputError(s_.checkpoint.string() +
-                       ": no checkpoint to resume from (run without --resume first)");
-    json j;
-    try {
-      j = json::parse(in);
-      const bool v1 = j.at("version") == 1;
-      if (j.at("format") != kCheckpointFormat || (j.at("version") != kCheckpointVersion && !v1))
-        throw InputError(s_.checkpoint.string() + ": not a fulmar checkpoint of version " +
-                         std::to_string(kCheckpointVersion));
-      if (j.at("fingerprint").get<std::string>() != s_.fingerprint)
-        throw InputError(s_.checkpoint.string() +
-                         ": the checkpoint belongs to another case (or the case file changed); "
-                         "run without --resume to start afresh");
-      prior_elapsed_ = j.at("elapsed_s").get<double>();
-      const json& evals = j.at("evaluations");
-      for (size_t i = 0; i < evals.size(); ++i) {
-        json e = evals[i];
-        if (v1 && e.is_object() && e.contains("detail"))
-          e["detail"] = upgrade_v1_detail(e["detail"], p_.constraint_ids);
-        Evaluation ev =
-            evaluation_from_json(e, s_.checkpoint.string() + ": /evaluations/" + std::to_string(i));
-        replay_[ev.x] = std::move(ev);
-      }
-    } catch (const json::exception& e) {
-      throw InputError(s_.checkpoint.string() + ": damaged checkpoint (" + e.what() + ")");
+    Checkpoint c = read_checkpoint(s_.checkpoint, s_.fingerprint, p_.constraint_ids);
+    prior_elapsed_ = c.elapsed_s;
+    for (Evaluation& e : c.evaluations) {
+      std::vector<double> x = e.x;
+      replay_[std::move(x)] = std::move(e);
     }
   }
 
@@ -587,39 +508,6 @@ class Search {
 
 }  // namespace
 
-json to_json(const Evaluation& e) {
-  return json{{"x", e.x},   {"objective", e.objective}, {"constraints", e.constraints},
-              {"ok", e.ok}, {"status", e.status},       {"detail", to_json(e.detail)}};
-}
-
-Evaluation evaluation_from_json(const json& j, const std::string& where) {
-  using namespace json_read;
-  Evaluation e;
-  e.x = member(j, "x", where).get<std::vector<double>>();
-  e.objective = number(j, "objective", where);
-  e.constraints = member(j, "constraints", where).get<std::vector<double>>();
-  e.ok = boolean(j, "ok", where);
-  e.status = text(j, "status", where);
-  e.detail = evaluation_record_from_json(member(j, "detail", where), where + "/detail");
-  return e;
-}
-
-double worst_constraint(const Evaluation& e) {
-  double w = -std::numeric_limits<double>::infinity();
-  for (double c : e.constraints) w = std::max(w, c);
-  return w;
-}
-
-int best_feasible(const std::vector<Evaluation>& history, double tolerance) {
-  int best = -1;
-  for (size_t i = 0; i < history.size(); ++i) {
-    const Evaluation& e = history[i];
-    if (!e.ok || worst_constraint(e) > tolerance) continue;
-    if (best < 0 || e.objective < history[best].objective) best = int(i);
-  }
-  return best;
-}
-
 SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings) {
   settings.options.Validate();
   const size_t n = problem.start.size();
@@ -629,8 +517,9 @@ SearchResult run_search(const SearchProblem& problem, const SearchSettings& sett
     if (!(problem.lower[i] < problem.upper[i]) || problem.start[i] < problem.lower[i] ||
         problem.start[i] > problem.upper[i])
       throw InputError("search: design variable " + std::to_string(i) + " = " +
-                       num(problem.start[i]) + " lies outside its bounds [" +
-                       num(problem.lower[i]) + ", " + num(problem.upper[i]) + "]");
+                       general_text(problem.start[i]) + " lies outside its bounds [" +
+                       general_text(problem.lower[i]) + ", " + general_text(problem.upper[i]) +
+                       "]");
   Search search(problem, settings);
   return search.run();
 }

@@ -13,37 +13,18 @@
 #include <string>
 #include <vector>
 
-#include <nlohmann/json.hpp>
-
 #include "optimize/evaluation_record.h"
 #include "optimize/search_options.h"
 
 namespace fulmar::optimize {
 
-// The outcome of analysing one design. A failed analysis is a normal result (ok = false) with a
-// finite, unattractive objective and violated constraints, so the search steers away.
-struct Evaluation {
-  std::vector<double> x;
-  double objective = 0;
-  std::vector<double> constraints;  // scaled; <= 0 is met
-  bool ok = false;
-  std::string status;       // "ok" or what failed
-  EvaluationRecord detail;  // per-point results etc., kept for history and summary
-};
-nlohmann::json to_json(const Evaluation& e);
-// Throws InputError naming `where` and the key for a missing or mistyped key.
-Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
-
 // Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
-// broke down on it): the search records it as a failed evaluation (ok = false, the message in
-// the status) and goes on. Anything else an evaluate function throws (InputError, a program error)
-// ends the search and propagates out of run_search.
+// broke down on it): the search records it as a failed evaluation (status kFailed, the message
+// in the reason) and goes on. Anything else an evaluate function throws (InputError, a program
+// error) ends the search and propagates out of run_search.
 struct AnalysisFailure : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
-
-// The largest scaled constraint value (<= 0: all met); -inf when there are none.
-double worst_constraint(const Evaluation& e);
 
 struct SearchProblem {
   std::vector<double> lower, upper;  // bounds, #variables each
@@ -60,13 +41,17 @@ struct SearchProblem {
   std::function<Evaluation(const std::vector<double>& x)> evaluate;
 };
 
-struct SearchResult {
+// How the search ended (Outcome): converged when every local search met NLopt's tolerance;
+// otherwise the status of the first one that did not: stopped by a limit (evaluation budget or
+// its share of it, time limit) or a signal, not_converged when NLopt gave up (roundoff, another
+// stop code), failed when NLopt failed. The reason lists what each local search ended on
+// ("converged: ...", "evaluation budget of 400 analyses spent", "time limit of 60 s reached").
+struct SearchResult : Outcome {
+  bool converged() const { return status == Status::kConverged; }
   std::vector<Evaluation> history;  // every distinct design analysed, in order
   int best = -1;                    // index of the best feasible design in history, -1: none
   int best_any = -1;                // the least infeasible (or best feasible) design
-  bool converged = false;           // NLopt met its tolerance (not stopped by a limit)
-  std::string stop_reason;          // "converged: ...", "evaluation budget", "time limit", ...
-  bool interrupted = false;         // stopped by a signal
+  bool interrupted = false;         // stopped by a signal (status kStopped)
   int iterations = 0;
   double elapsed_s = 0;  // wall time summed over resumed runs
   int replayed = 0;      // evaluations taken from the checkpoint on resume
@@ -86,8 +71,5 @@ struct SearchSettings {
 // case, and passes on what an evaluate function throws other than AnalysisFailure; everything
 // else (failed analyses, limits, signals) ends in the result.
 SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings);
-
-// Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.
-int best_feasible(const std::vector<Evaluation>& history, double tolerance);
 
 }  // namespace fulmar::optimize

@@ -1,8 +1,11 @@
 #include "optimize/evaluation_record.h"
 
+#include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "common/error.h"
+#include "common/number_text.h"
 
 namespace fulmar::optimize {
 
@@ -47,10 +50,6 @@ std::string text(const json& j, const std::string& key, const std::string& where
 namespace {
 
 using namespace json_read;
-
-json finite_or_null(double v) {
-  return std::isfinite(v) ? json(v) : json(nullptr);
-}
 
 }  // namespace
 
@@ -113,9 +112,13 @@ DesignPointRecord design_point_record_from_json(const json& j, const std::string
   p.cl_target = number(j, "cl_target", where);
   p.reynolds = number(j, "reynolds", where);
   p.mach = number(j, "mach", where);
-  PointResult& r = p.result;
-  r.converged = boolean(j, "converged", where);
-  r.reason = text(j, "reason", where);
+  p.result = point_result_from_json(j, where);
+  return p;
+}
+
+PointResult point_result_from_json(const json& j, const std::string& where) {
+  PointResult r;
+  static_cast<Outcome&>(r) = outcome_from_json(j, where);
   r.residual = number(j, "residual", where);
   r.iterations = integer(j, "iterations", where);
   r.alpha_deg = number(j, "alpha", where);
@@ -126,13 +129,13 @@ DesignPointRecord design_point_record_from_json(const json& j, const std::string
   r.cm = number(j, "cm", where);
   r.transition_upper = number(j, "transition_upper", where);
   r.transition_lower = number(j, "transition_lower", where);
-  return p;
+  return r;
 }
 
 json to_json(const ConstraintRecord& c) {
   return json{{"id", c.id},
               {"name", c.name},
-              {"value", finite_or_null(c.value)},
+              {"value", json_number(c.value)},
               {"limit", c.limit},
               {"kind", c.is_min ? "min" : "max"},
               {"satisfied", c.satisfied}};
@@ -174,10 +177,7 @@ EvaluationRecord evaluation_record_from_json(const json& j, const std::string& w
         design_point_record_from_json(points[i], where + "/points/" + std::to_string(i)));
   const json& clm = member(j, "cl_max", where);
   const std::string cw = where + "/cl_max";
-  r.cl_max.found = boolean(clm, "found", cw);
-  r.cl_max.reason = text(clm, "reason", cw);
-  r.cl_max.cl_max = number(clm, "cl_max", cw);
-  r.cl_max.alpha_deg = number(clm, "alpha", cw);
+  r.cl_max = cl_max_result_from_json(clm, cw);
   r.panels = integer(j, "panels", where);
   const json& constraints = member(j, "constraints", where);
   if (!constraints.is_array()) throw InputError(where + "/constraints: not a list");
@@ -185,6 +185,51 @@ EvaluationRecord evaluation_record_from_json(const json& j, const std::string& w
     r.constraints.push_back(
         constraint_record_from_json(constraints[i], where + "/constraints/" + std::to_string(i)));
   return r;
+}
+
+ClMaxResult cl_max_result_from_json(const json& j, const std::string& where) {
+  ClMaxResult c;
+  static_cast<Outcome&>(c) = outcome_from_json(j, where);
+  c.cl_max = number(j, "cl_max", where);
+  c.alpha_deg = number(j, "alpha", where);
+  return c;
+}
+
+nlohmann::json to_json(const Evaluation& e) {
+  return nlohmann::json{{"x", e.x},
+                        {"objective", e.objective},
+                        {"constraints", e.constraints},
+                        {"ok", e.ok()},
+                        {"status", e.status_text()},
+                        {"outcome", to_json(static_cast<const Outcome&>(e))},
+                        {"detail", to_json(e.detail)}};
+}
+
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where) {
+  using namespace json_read;
+  Evaluation e;
+  e.x = member(j, "x", where).get<std::vector<double>>();
+  e.objective = number(j, "objective", where);
+  e.constraints = member(j, "constraints", where).get<std::vector<double>>();
+  static_cast<Outcome&>(e) = outcome_from_json(member(j, "outcome", where), where + "/outcome");
+  e.detail = evaluation_record_from_json(member(j, "detail", where), where + "/detail");
+  return e;
+}
+
+double worst_constraint(const Evaluation& e) {
+  double w = -std::numeric_limits<double>::infinity();
+  for (double c : e.constraints) w = std::max(w, c);
+  return w;
+}
+
+int best_feasible(const std::vector<Evaluation>& history, double tolerance) {
+  int best = -1;
+  for (size_t i = 0; i < history.size(); ++i) {
+    const Evaluation& e = history[i];
+    if (!e.ok() || worst_constraint(e) > tolerance) continue;
+    if (best < 0 || e.objective < history[best].objective) best = int(i);
+  }
+  return best;
 }
 
 }  // namespace fulmar::optimize

@@ -59,6 +59,34 @@ nlohmann::json to_json(const ConstraintRecord& c);
 ConstraintRecord constraint_record_from_json(const nlohmann::json& j, const std::string& where);
 nlohmann::json to_json(const EvaluationRecord& r);
 EvaluationRecord evaluation_record_from_json(const nlohmann::json& j, const std::string& where);
+// The values and the outcome ("status", "reason") of to_json(PointResult) / to_json(ClMaxResult);
+// "converged" and "found" are derived from the status and not read.
+PointResult point_result_from_json(const nlohmann::json& j, const std::string& where);
+ClMaxResult cl_max_result_from_json(const nlohmann::json& j, const std::string& where);
+
+// The outcome of analysing one design. A failed analysis is a normal result (status kFailed,
+// the reason saying what failed) with a finite, unattractive objective and violated constraints,
+// so the search steers away; a successful one is kConverged with an empty reason.
+struct Evaluation : Outcome {
+  std::vector<double> x;
+  double objective = 0;
+  std::vector<double> constraints;  // scaled; <= 0 is met
+  EvaluationRecord detail;          // per-point results etc., kept for history and summary
+  bool ok() const { return status == Status::kConverged; }
+  // The text the files carry as "status" (JSON) or "status" (CSV column): "ok", or what failed.
+  std::string status_text() const { return ok() ? std::string("ok") : reason; }
+};
+// JSON: x, objective, constraints, detail, "outcome" (to_json(Outcome)) and, derived from it,
+// "ok" and "status" (status_text()).
+nlohmann::json to_json(const Evaluation& e);
+// Throws InputError naming `where` and the key for a missing or mistyped key.
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
+
+// The largest scaled constraint value (<= 0: all met); -inf when there are none.
+double worst_constraint(const Evaluation& e);
+
+// Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.
+int best_feasible(const std::vector<Evaluation>& history, double tolerance);
 
 // Strict readers of one key of a JSON object, shared by the typed results' conversions.
 namespace json_read {

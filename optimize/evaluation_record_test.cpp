@@ -26,13 +26,13 @@ EvaluationRecord sample() {
   p.cl_target = 0.34;
   p.reynolds = 4.88e6;
   p.mach = 0.186;
-  p.result.converged = true;
+  p.result.status = Status::kConverged;
   p.result.cl = 0.34;
   p.result.cd = 0.0051;
   p.result.cm = -0.05;
   p.result.alpha_deg = 2.5;
   r.points = {p};
-  r.cl_max.found = true;
+  r.cl_max.status = Status::kConverged;
   r.cl_max.cl_max = 1.52;
   r.cl_max.alpha_deg = 15.5;
   r.panels = 200;
@@ -62,6 +62,11 @@ TEST(EvaluationRecord, JsonRoundTripKeepsEveryField) {
     EXPECT_TRUE(j.contains(k)) << k;
   for (const char* k : {"name", "value", "limit", "kind", "satisfied", "id"})
     EXPECT_TRUE(j.at("constraints").at(0).contains(k)) << k;
+  // "converged" and "found" are written as before, derived from the shared status beside them.
+  EXPECT_EQ(j.at("points").at(0).at("converged"), true);
+  EXPECT_EQ(j.at("points").at(0).at("status"), "converged");
+  EXPECT_EQ(j.at("cl_max").at("found"), true);
+  EXPECT_EQ(j.at("cl_max").at("status"), "converged");
 }
 
 // A missing key is an error naming its path, never a silent default.
@@ -71,7 +76,8 @@ TEST(EvaluationRecord, AMissingKeyIsAnErrorNamingItsPath) {
       {json::json_pointer("/panels"), "test/panels: missing"},
       {json::json_pointer("/geometry/thickness"), "test/geometry/thickness: missing"},
       {json::json_pointer("/points/0/cd"), "test/points/0/cd: missing"},
-      {json::json_pointer("/cl_max/found"), "test/cl_max/found: missing"},
+      {json::json_pointer("/cl_max/status"), "test/cl_max/status: missing"},
+      {json::json_pointer("/points/0/reason"), "test/points/0/reason: missing"},
       {json::json_pointer("/constraints/0/id"), "test/constraints/0/id: missing"}};
   for (const auto& [ptr, message] : cases) {
     json j = whole;

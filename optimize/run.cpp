@@ -162,7 +162,7 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
 
   RunOutcome out;
   out.interrupted = r.interrupted;
-  out.converged = r.converged;
+  out.converged = r.converged();
   out.feasible = v.feasible;
   out.summary = summary;
   return out;

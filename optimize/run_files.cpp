@@ -32,8 +32,8 @@ std::string history_csv(const SearchResult& r, const std::vector<std::string>& n
   for (size_t k = 0; k < r.history.size(); ++k) {
     const Evaluation& e = r.history[k];
     const double w = worst_constraint(e);
-    o << k + 1 << "," << csv_field(e.status) << "," << g6(e.objective, 10) << "," << g6(w, 6) << ","
-      << (e.ok && w <= tol ? "true" : "false");
+    o << k + 1 << "," << csv_field(e.status_text()) << "," << g6(e.objective, 10) << "," << g6(w, 6)
+      << "," << (e.ok() && w <= tol ? "true" : "false");
     for (double x : e.x) o << "," << g6(x, 17);
     for (double g : e.constraints) o << "," << g6(g, 8);
     o << "\n";

@@ -18,13 +18,12 @@ TEST(RunFiles, HistoryHasOneRowPerEvaluationAndItsColumns) {
   SearchResult r;
   Evaluation a;
   a.x = {0.1, 0.2};
-  a.ok = true;
-  a.status = "ok";
+  a.status = Status::kConverged;
   a.objective = 0.55;
   a.constraints = {-0.5, 0.25};
   Evaluation b = a;
-  b.ok = false;
-  b.status = "failed, badly";  // a comma: the field is quoted
+  b.status = Status::kFailed;
+  b.reason = "failed, badly";  // a comma: the field is quoted
   r.history = {a, b};
   const std::string csv = history_csv(r, {"t/c >= 0.12", "cl_max"}, 1e-6);
   std::istringstream in(csv);

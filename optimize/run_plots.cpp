@@ -65,7 +65,7 @@ Series polar_series(const std::vector<PointResult>& p, bool optimized, int what)
   s.dashed = !optimized;
   for (const auto& r : p) {
     const double nan = std::nan("");
-    const bool ok = r.converged;
+    const bool ok = r.converged();
     s.x.push_back(what == 0 ? (ok ? r.cd : nan) : r.alpha_deg);
     s.y.push_back(!ok ? nan : (what == 2 ? r.cm : r.cl));
   }
@@ -103,7 +103,7 @@ PolarPlots polar_plots(const Case& c, const std::vector<PolarCondition>& conds,
       dp.colour = which == 0 ? kBaselineColour : kOptimizedColour;
       for (const auto& p : (which == 0 ? base_v : opt_v).detail.points)
         if (std::abs(p.reynolds - conds[k].flow.reynolds) <= 1e-6 * conds[k].flow.reynolds &&
-            p.result.converged)
+            p.result.converged())
           dp.x.push_back(p.result.cd), dp.y.push_back(p.result.cl);
       if (!dp.x.empty()) pc.series.push_back(dp);
     }
@@ -168,8 +168,8 @@ std::string convergence_plot(const SearchResult& r, double tol) {
   for (size_t k = 0; k < r.history.size(); ++k) {
     const Evaluation& e = r.history[k];
     all.x.push_back(double(k + 1));
-    all.y.push_back(e.ok ? e.objective : std::nan(""));
-    if (e.ok && worst_constraint(e) <= tol && !(e.objective >= best_so_far))
+    all.y.push_back(e.ok() ? e.objective : std::nan(""));
+    if (e.ok() && worst_constraint(e) <= tol && !(e.objective >= best_so_far))
       best_so_far = e.objective;
     best.x.push_back(double(k + 1));
     best.y.push_back(best_so_far);
@@ -184,8 +184,8 @@ std::string convergence_plot(const SearchResult& r, double tol) {
   w.colour = "#1f4e79";
   for (size_t k = 0; k < r.history.size(); ++k) {
     w.x.push_back(double(k + 1));
-    w.y.push_back(r.history[k].ok ? std::clamp(worst_constraint(r.history[k]), -1.0, 1.0)
-                                  : std::nan(""));
+    w.y.push_back(r.history[k].ok() ? std::clamp(worst_constraint(r.history[k]), -1.0, 1.0)
+                                    : std::nan(""));
   }
   viol.series = {w};
   viol.guides.push_back({"feasible below", 0.0, true, "#2e8b57"});

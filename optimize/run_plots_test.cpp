@@ -30,11 +30,11 @@ TEST(RunPlots, SectionsPlotHasItsThreeCharts) {
 TEST(RunPlots, ConvergencePlotSkipsFailedAnalyses) {
   SearchResult r;
   Evaluation ok;
-  ok.ok = true;
+  ok.status = Status::kConverged;
   ok.objective = 0.6;
   ok.constraints = {-1};
   Evaluation failed;
-  failed.ok = false;
+  failed.status = Status::kFailed;
   failed.objective = 1e3;
   failed.constraints = {1};
   r.history = {ok, failed, ok};

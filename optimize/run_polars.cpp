@@ -51,7 +51,7 @@ std::string polar_csv(const std::vector<PolarCondition>& conds, const SectionPol
       r.cm = p.cm;
       r.transition_upper = p.transition_upper;
       r.transition_lower = p.transition_lower;
-      r.converged = p.converged;
+      r.converged = p.converged();
       r.iterations = p.iterations;
       r.section = section_name;
       r.condition = conds[k].name;

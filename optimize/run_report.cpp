@@ -59,7 +59,7 @@ std::string report_markdown(const Case& c, const json& summary, const SearchResu
                    : "**The optimized section does NOT meet every constraint in the verification "
                      "analysis.**")
     << " Search: " << to_string(c.optimizer.algorithm) << ", " << r.history.size() << " analyses ("
-    << failed << " failed), " << r.stop_reason << (r.interrupted ? " (interrupted)" : "")
+    << failed << " failed), " << r.reason << (r.interrupted ? " (interrupted)" : "")
     << ". Verification with " << c.analysis.verify_panels
     << " panels (search: " << c.analysis.panels << "). Analysis: " << evaluator_description << ".";
   if (v.kept_start)

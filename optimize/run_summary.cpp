@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "common/number_text.h"
 #include "optimize/section_problem.h"
 
 namespace fulmar::optimize {
@@ -10,7 +11,7 @@ namespace {
 using nlohmann::json;
 
 double weighted_cd(const Case& /*c*/, const Evaluation& e) {
-  if (!e.ok) return std::nan("");
+  if (!e.ok()) return std::nan("");
   return e.objective / 100.0;
 }
 
@@ -18,17 +19,18 @@ json section_block(const Case& c, const Evaluation& e, const std::string& name,
                    const CstShape& shape) {
   json b;
   b["name"] = name;
-  b["analysis_ok"] = e.ok;
-  b["status"] = e.status;
+  b["analysis_ok"] = e.ok();
+  b["status"] = e.status_text();
+  b["outcome"] = to_json(static_cast<const Outcome&>(e));
   b["panels"] = e.detail.panels;
   const double wcd = weighted_cd(c, e);
-  b["weighted_cd"] = std::isfinite(wcd) ? json(wcd) : json(nullptr);
+  b["weighted_cd"] = json_number(wcd);
   json points = json::array();
   for (const auto& p : e.detail.points) points.push_back(to_json(p));
   b["points"] = std::move(points);
   const ClMaxResult& clm = e.detail.cl_max;
-  b["cl_max"] = clm.found ? json(clm.cl_max) : json(nullptr);
-  b["alpha_cl_max"] = clm.found ? json(clm.alpha_deg) : json(nullptr);
+  b["cl_max"] = clm.found() ? json(clm.cl_max) : json(nullptr);
+  b["alpha_cl_max"] = clm.found() ? json(clm.alpha_deg) : json(nullptr);
   const CstMeasures& g = e.detail.geometry;
   b["thickness"] = g.thickness;
   b["thickness_x"] = g.thickness_x;
@@ -50,7 +52,7 @@ json run_summary(const Case& c, const SearchResult& r, const VerifiedOptimum& v,
                  double fit_deviation, const std::string& optimum_name,
                  const CstShape& optimum_shape, const std::string& evaluator_description) {
   int failed = 0;
-  for (const auto& e : r.history) failed += e.ok ? 0 : 1;
+  for (const auto& e : r.history) failed += e.ok() ? 0 : 1;
   json summary;
   summary["case"] = c.name;
   summary["case_file"] = c.path.string();
@@ -103,8 +105,9 @@ json run_summary(const Case& c, const SearchResult& r, const VerifiedOptimum& v,
   summary["optimum_is_start"] = v.kept_start;
   summary["failed_evaluations"] = failed;
   summary["iterations"] = r.iterations;
-  summary["converged"] = r.converged;
-  summary["stop_reason"] = r.stop_reason;
+  summary["converged"] = r.converged();
+  summary["status"] = to_string(r.status);  // of the search; its reason is "stop_reason"
+  summary["stop_reason"] = r.reason;
   summary["interrupted"] = r.interrupted;
   summary["replayed_from_checkpoint"] = r.replayed;
   summary["elapsed_s"] = r.elapsed_s;

@@ -38,9 +38,9 @@ struct Fixture {
     Evaluation failed;
     failed.x = p->space().start;
     failed.x[0] += 0.01;
-    failed.status = "failed";
+    failed.reason = "failed";
     r.history = {p->evaluate(p->space().start, c.analysis.panels), failed};
-    r.stop_reason = "test";
+    r.reason = "test";
     r.best_any = 0;
     v = verify_optimum(c, *p, r, p->space().start, nullptr);
   }
@@ -50,7 +50,7 @@ TEST(RunSummary, HoldsTheVerifiedFiguresUnderTheirKeys) {
   Fixture f;
   const json s = run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
                              f.b.shape, f.ev.description());
-  ASSERT_TRUE(f.v.baseline.ok) << f.v.baseline.status;
+  ASSERT_TRUE(f.v.baseline.ok()) << f.v.baseline.reason;
   EXPECT_DOUBLE_EQ(s.at("baseline").at("weighted_cd").get<double>(),
                    f.v.baseline.objective / 100.0);
   EXPECT_EQ(s.at("baseline").at("points").size(), 2u);

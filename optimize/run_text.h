@@ -1,28 +1,22 @@
 #pragma once
 // Number and field formatting shared by the files of one optimization run (run_*.cpp): the
-// precision rules of the CSV files, tables and report live here once.
+// precision rules of the CSV files, tables and report live here once; the rule for values that
+// are not finite is common/number_text.h's.
 #include <cmath>
-#include <cstdio>
 #include <string>
 
-#include <nlohmann/json.hpp>
+#include "common/number_text.h"
 
 namespace fulmar::optimize::run_text {
 
 // %g with `precision` significant digits; "" for a non-finite value (an empty CSV field).
 inline std::string g6(double v, int precision = 6) {
-  if (!std::isfinite(v)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", precision, v);
-  return buf;
+  return std::isfinite(v) ? general_text(v, precision) : std::string();
 }
 
-// %f with `decimals` decimals; "-" for a non-finite value (a table cell).
+// %f with `decimals` decimals; "n/a" for a non-finite value (a table cell).
 inline std::string fixed(double v, int decimals) {
-  if (!std::isfinite(v)) return "-";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-  return buf;
+  return fixed_text(v, decimals);
 }
 
 // A CSV field, quoted (RFC 4180) when it holds a comma, quote or line break.

@@ -17,7 +17,7 @@ VerifiedOptimum verify_optimum(const Case& c, const SectionProblem& problem, con
   auto verify = [&](const std::vector<double>& x) {
     Evaluation e = problem.evaluate(x, c.analysis.verify_panels);
     for (int extra : {8, 16, 24, 40}) {
-      if (e.ok) break;
+      if (e.ok()) break;
       e = problem.evaluate(x, c.analysis.verify_panels + extra);
     }
     return e;
@@ -29,7 +29,7 @@ VerifiedOptimum verify_optimum(const Case& c, const SectionProblem& problem, con
   // verified (infeasible). Deterministic in the history, so a resumed run chooses the same.
   std::vector<int> candidates;
   for (int i = 0; i < static_cast<int>(r.history.size()); ++i)
-    if (r.history[size_t(i)].ok && worst_constraint(r.history[size_t(i)]) <= tol)
+    if (r.history[size_t(i)].ok() && worst_constraint(r.history[size_t(i)]) <= tol)
       candidates.push_back(i);
   std::stable_sort(candidates.begin(), candidates.end(), [&](int a, int b) {
     return r.history[size_t(a)].objective < r.history[size_t(b)].objective;
@@ -48,13 +48,13 @@ VerifiedOptimum verify_optimum(const Case& c, const SectionProblem& problem, con
                 << " (evaluation " << i + 1 << ") with " << c.analysis.verify_panels << " panels\n"
                 << std::flush;
     Evaluation e = verify(x);
-    const bool ok = e.ok && worst_constraint(e) <= tol;
+    const bool ok = e.ok() && worst_constraint(e) <= tol;
     verified.push_back(
         {{"evaluation", i + 1},
          {"search_objective", i >= 0 ? json(r.history[size_t(i)].objective) : json(nullptr)},
-         {"verified_objective", e.ok ? json(e.objective) : json(nullptr)},
+         {"verified_objective", e.ok() ? json(e.objective) : json(nullptr)},
          {"feasible", ok},
-         {"status", e.status}});
+         {"status", e.status_text()}});
     if (k == 0 || ok) {
       x_opt = x;
       opt_v = std::move(e);
@@ -69,8 +69,8 @@ VerifiedOptimum verify_optimum(const Case& c, const SectionProblem& problem, con
   {
     const bool same = search_start == space.start;
     const Evaluation start_v = same ? base_v : verify(search_start);
-    const bool start_ok = start_v.ok && worst_constraint(start_v) <= tol;
-    const bool opt_ok = opt_v.ok && worst_constraint(opt_v) <= tol;
+    const bool start_ok = start_v.ok() && worst_constraint(start_v) <= tol;
+    const bool opt_ok = opt_v.ok() && worst_constraint(opt_v) <= tol;
     if (start_ok && (!opt_ok || start_v.objective < opt_v.objective)) {
       kept_start = true;
       x_opt = search_start;
@@ -83,7 +83,7 @@ VerifiedOptimum verify_optimum(const Case& c, const SectionProblem& problem, con
   }
   VerifiedOptimum out;
   out.baseline = base_v;
-  out.feasible = opt_v.ok && worst_constraint(opt_v) <= tol;
+  out.feasible = opt_v.ok() && worst_constraint(opt_v) <= tol;
   out.optimum = std::move(opt_v);
   out.x = std::move(x_opt);
   out.candidates = std::move(verified);

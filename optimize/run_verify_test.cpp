@@ -30,7 +30,7 @@ SearchResult history_of(const SectionProblem& p, int n, double worst) {
     Evaluation e;
     e.x = p.space().start;
     e.x[1] += 1e-3 * i;  // small moves: the designs stay valid sections
-    e.ok = true;
+    e.status = Status::kConverged;
     e.objective = 1.0 - 0.01 * i;
     e.constraints = {worst};
     r.history.push_back(e);
@@ -47,12 +47,13 @@ TEST(RunVerify, TheBestCandidateFirstAtTheVerificationPanels) {
   const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
   const SearchResult r = history_of(p, 7, -1.0);
   const VerifiedOptimum v = verify_optimum(c, p, r, p.space().start, nullptr);
-  ASSERT_TRUE(v.optimum.ok) << v.optimum.status;
+  ASSERT_TRUE(v.optimum.ok()) << v.optimum.reason;
   EXPECT_EQ(v.baseline.detail.panels, c.analysis.verify_panels);
   EXPECT_EQ(v.optimum.detail.panels, c.analysis.verify_panels);
   ASSERT_GE(v.candidates.size(), 1u);
   EXPECT_EQ(v.candidates[0].at("evaluation"), 7);  // the lowest search objective
-  EXPECT_EQ(v.feasible, v.optimum.ok && worst_constraint(v.optimum) <= c.optimizer.constraint_tol);
+  EXPECT_EQ(v.feasible,
+            v.optimum.ok() && worst_constraint(v.optimum) <= c.optimizer.constraint_tol);
   if (v.feasible) {
     EXPECT_EQ(v.candidates.size(), 1u);
   } else {

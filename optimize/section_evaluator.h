@@ -9,6 +9,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "common/status.h"
 #include "geometry/section.h"
 
 namespace fulmar::optimize {
@@ -23,9 +24,10 @@ struct FlowCondition {
 };
 
 // One converged (or not) operating point.
-struct PointResult {
-  bool converged = false;
-  std::string reason;   // why not converged (empty when converged)
+// How the analysis ended (Outcome: the viscous solve's status; the reason says why it did not
+// converge and is empty when it did), then the values.
+struct PointResult : Outcome {
+  bool converged() const { return status == Status::kConverged; }
   double residual = 0;  // final residual of the solver
   int iterations = 0;
   double alpha_deg = 0;
@@ -33,9 +35,10 @@ struct PointResult {
   double transition_upper = 1, transition_lower = 1;                // x/c
 };
 
-struct ClMaxResult {
-  bool found = false;
-  std::string reason;  // why not found
+// The maximum lift coefficient: converged when found (a peak bracketed and refined, or the last
+// converged lift before the solutions stop converging); failed with the reason when not.
+struct ClMaxResult : Outcome {
+  bool found() const { return status == Status::kConverged; }
   double cl_max = 0;
   double alpha_deg = 0;
 };
@@ -79,9 +82,9 @@ class SectionEvaluator {
                           int panels) const = 0;
 };
 
+// JSON: the values, "status" and "reason" (to_json(Outcome)), and "converged" (PointResult) or
+// "found" (ClMaxResult) derived from the status. The strict readers are in evaluation_record.h.
 nlohmann::json to_json(const PointResult& p);
-PointResult point_from_json(const nlohmann::json& j);
 nlohmann::json to_json(const ClMaxResult& c);
-ClMaxResult cl_max_from_json(const nlohmann::json& j);
 
 }  // namespace fulmar::optimize

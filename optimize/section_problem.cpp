@@ -5,6 +5,7 @@
 #include <numbers>
 
 #include "common/error.h"
+#include "common/number_text.h"
 #include "geometry/coordinates_io.h"
 #include "geometry/metrics.h"
 #include "geometry/naca.h"
@@ -13,12 +14,6 @@ namespace fulmar::optimize {
 namespace {
 
 using nlohmann::json;
-
-std::string text(double v) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.6g", v);
-  return buf;
-}
 
 std::string scenario_label(const DesignPoint& p, const TransitionScenario& s, size_t scenarios) {
   return scenarios > 1 ? p.name + "/" + s.name : p.name;
@@ -99,8 +94,9 @@ DesignSpace design_space(const Case& c, const CstShape& baseline) {
       const double v = a[i];
       if ((!std::isnan(lo) && v < lo) || (!std::isnan(hi) && v > hi))
         throw InputError(c.path.string() + ": /parameterization/bounds/" + surface +
-                         ": the baseline's coefficient a_" + std::to_string(i) + " = " + text(v) +
-                         " lies outside [" + text(lo) + ", " + text(hi) + "]");
+                         ": the baseline's coefficient a_" + std::to_string(i) + " = " +
+                         general_text(v) + " lies outside [" + general_text(lo) + ", " +
+                         general_text(hi) + "]");
       d.start.push_back(v);
       d.lower.push_back(std::isnan(lo) ? v - p.margin : std::max(lo, v - p.margin));
       d.upper.push_back(std::isnan(hi) ? v + p.margin : std::min(hi, v + p.margin));
@@ -130,7 +126,8 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
   if (!std::isnan(k.thickness_min))
     limits_.push_back({"thickness_min", "t/c", true, k.thickness_min, k.thickness_min});
   for (const auto& s : k.spars)
-    limits_.push_back({"spar_" + text(s.x), "t/c at x = " + text(s.x), true, s.min, s.min});
+    limits_.push_back(
+        {"spar_" + general_text(s.x), "t/c at x = " + general_text(s.x), true, s.min, s.min});
   if (!std::isnan(k.te_gap_min))
     limits_.push_back({"te_gap_min", "trailing-edge gap", true, k.te_gap_min, 0.005});
   if (!std::isnan(k.te_gap_max))
@@ -157,7 +154,7 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
                            0.05});
   for (const auto& l : limits_) ids_.push_back(l.id);
   for (const auto& l : limits_)
-    names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + text(l.limit));
+    names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + general_text(l.limit));
 }
 
 Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) const {
@@ -186,8 +183,7 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
   if (!std::isnan(k.thickness_x_max)) values.push_back(g.thickness_x);
 
   e.detail.geometry = g;
-  e.ok = true;
-  e.status = "ok";
+  e.status = Status::kConverged;
   double objective = kFailedObjective;
   ClMaxResult clmax;
   clmax.reason = "not analysed";
@@ -195,8 +191,8 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
 
   if (g.min_shape_gap <= 0) {
     // Crossing surfaces: no flow analysis can mean anything.
-    e.ok = false;
-    e.status = "invalid geometry: the surfaces cross (thickness <= 0 somewhere)";
+    e.status = Status::kFailed;
+    e.reason = "invalid geometry: the surfaces cross (thickness <= 0 somewhere)";
   } else {
     AnalysisRequest request;
     request.panels = panels;
@@ -213,8 +209,8 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     results = a.points;
     clmax = a.cl_max;
     if (results.size() != request.points.size()) {
-      e.ok = false;
-      e.status = "analysis failed: the evaluator returned " + std::to_string(results.size()) +
+      e.status = Status::kFailed;
+      e.reason = "analysis failed: the evaluator returned " + std::to_string(results.size()) +
                  " of " + std::to_string(request.points.size()) + " points";
       results.resize(request.points.size());
     }
@@ -223,28 +219,28 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     for (const auto& p : c.points)
       for (const auto& s : c.scenarios) {
         const PointResult& r = results[i++];
-        if (e.ok && (!r.converged || !std::isfinite(r.cd) || r.cd <= 0)) {
-          e.ok = false;
-          e.status = "analysis failed at " + scenario_label(p, s, c.scenarios.size()) + ": " +
+        if (e.ok() && (!r.converged() || !std::isfinite(r.cd) || r.cd <= 0)) {
+          e.status = Status::kFailed;
+          e.reason = "analysis failed at " + scenario_label(p, s, c.scenarios.size()) + ": " +
                      (r.reason.empty() ? std::string("not converged") : r.reason);
         }
         sum += p.weight * s.weight * r.cd;
         weights += p.weight * s.weight;
       }
-    if (request.cl_max_at && e.ok && (!clmax.found || !std::isfinite(clmax.cl_max))) {
-      e.ok = false;
-      e.status =
+    if (request.cl_max_at && e.ok() && (!clmax.found() || !std::isfinite(clmax.cl_max))) {
+      e.status = Status::kFailed;
+      e.reason =
           "cl_max not found: " + (clmax.reason.empty() ? std::string("no peak") : clmax.reason);
     }
-    if (e.ok) objective = 100.0 * sum / weights;
+    if (e.ok()) objective = 100.0 * sum / weights;
   }
-  if (!std::isnan(k.cl_max_min)) values.push_back(clmax.found ? clmax.cl_max : nan);
+  if (!std::isnan(k.cl_max_min)) values.push_back(clmax.found() ? clmax.cl_max : nan);
   {
     size_t i = 0;
     for (const auto& p : c.points)
       for (size_t s = 0; s < c.scenarios.size(); ++s, ++i)
         if (!std::isnan(p.cm_min))
-          values.push_back(i < results.size() && results[i].converged ? results[i].cm : nan);
+          values.push_back(i < results.size() && results[i].converged() ? results[i].cm : nan);
   }
   {
     size_t i = 0;

@@ -39,7 +39,7 @@ TEST(SectionProblem, ConstraintTableNamesEveryLimit) {
   EXPECT_LT(b.fit_deviation, 1e-3);
   const SectionProblem p(c, ev, design_space(c, b.shape));
   const Evaluation e = p.evaluate(p.space().start, 160);
-  ASSERT_TRUE(e.ok) << e.status;
+  ASSERT_TRUE(e.ok()) << e.reason;
   const std::vector<ConstraintRecord>& table = SectionProblem::constraint_table(e);
   ASSERT_EQ(table.size(), p.constraint_names().size());
   ASSERT_EQ(p.constraint_ids().size(), p.constraint_names().size());
@@ -91,8 +91,8 @@ TEST(SectionProblem, CrossingSurfacesAreAFailureWithoutAnalysis) {
   std::vector<double> x = p.space().start;
   for (size_t i = 0; i < x.size() / 2; ++i) x[i] = -0.4;  // upper surface below the lower
   const Evaluation e = p.evaluate(x, 160);
-  EXPECT_FALSE(e.ok);
-  EXPECT_NE(e.status.find("invalid geometry"), std::string::npos);
+  EXPECT_FALSE(e.ok());
+  EXPECT_NE(e.reason.find("invalid geometry"), std::string::npos);
   EXPECT_EQ(e.objective, kFailedObjective);
   EXPECT_EQ(ev.analyses.load(), 0);
 }
@@ -103,8 +103,8 @@ TEST(SectionProblem, AFailedPointNamesItself) {
   ev.fail_above_thickness = 0.15;
   const SectionProblem p(c, ev, design_space(c, resolve_baseline(c).shape));
   const Evaluation e = p.evaluate(p.space().start, 160);
-  EXPECT_FALSE(e.ok);
-  EXPECT_EQ(e.status, "analysis failed at cruise: test: injected failure");
+  EXPECT_FALSE(e.ok());
+  EXPECT_EQ(e.reason, "analysis failed at cruise: test: injected failure");
   EXPECT_TRUE(std::isfinite(e.objective));
 }
 
@@ -117,7 +117,7 @@ TEST(SectionProblem, ImprovesAPoorBaselineAndMeetsItsConstraints) {
   s.threads = 2;
   if (std::getenv("FULMAR_TEST_VERBOSE")) s.progress = &std::cout;
   const SearchResult r = run_search(p.search_problem(), s);
-  ASSERT_GE(r.best, 0) << r.stop_reason;
+  ASSERT_GE(r.best, 0) << r.reason;
   const Evaluation& best = r.history[size_t(r.best)];
   const Evaluation& start = r.history.front();
   // The analytic model's optimum (by hand): t/c at its limit 0.12 and camber at the cm limit

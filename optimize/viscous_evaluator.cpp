@@ -25,8 +25,8 @@ viscous::ViscousOptions options_for(const FlowCondition& flow) {
 
 PointResult point_from(const viscous::ViscousResult& r) {
   PointResult p;
-  p.converged = r.converged;
-  p.reason = r.converged ? std::string() : r.reason;
+  p.status = r.status;
+  p.reason = r.converged() ? std::string() : r.reason;
   p.residual = std::isfinite(r.residual) ? r.residual : 1e300;
   p.iterations = r.iterations;
   p.alpha_deg = r.alpha;
@@ -93,7 +93,7 @@ ClMaxResult find_cl_max(const viscous::ViscousSolver& solver, int* solves) {
   if (solves) *solves = c.solves;
   std::vector<viscous::ViscousResult> done;  // converged grid angles, increasing alpha
   for (const viscous::ViscousResult& p : c.points)
-    if (p.converged) done.push_back(p);
+    if (p.converged()) done.push_back(p);
   if (done.size() < 2) {
     out.reason = "fewer than two converged points in the angle sweep 4..26 deg";
     return out;
@@ -103,10 +103,10 @@ ClMaxResult find_cl_max(const viscous::ViscousSolver& solver, int* solves) {
     if (done[i].cl > done[best].cl) best = i;
   out.cl_max = done[best].cl;
   out.alpha_deg = done[best].alpha;
-  out.found = true;
+  out.status = Status::kConverged;
   if (best + 1 == done.size()) {
-    if (c.points[c.last_up].converged) {
-      out.found = false;
+    if (c.points[c.last_up].converged()) {
+      out.status = Status::kFailed;
       out.reason = "no peak of cl up to 26 deg";
       return out;
     }
@@ -182,7 +182,7 @@ class ViscousEvaluator final : public SectionEvaluator {
     const Points nodes = nodes_for(section, panels);
     const viscous::ViscousSolver solver(nodes, options_for(flow));
     const viscous::ViscousResult r = solver.solve_cl(cl);
-    if (!r.converged || r.cp.size() != nodes.rows()) return {};
+    if (!r.converged() || r.cp.size() != nodes.rows()) return {};
     Points out(nodes.rows(), 2);
     out.col(0) = nodes.col(0);
     out.col(1) = r.cp;

@@ -39,7 +39,7 @@ TEST_P(EvaluatorClMax, AgreesWithThePolarSweep) {
   AnalysisRequest request;
   request.cl_max_at = flow;
   const SectionAnalysis a = make_viscous_evaluator()->analyse(section, request);
-  ASSERT_TRUE(a.cl_max.found) << a.cl_max.reason;
+  ASSERT_TRUE(a.cl_max.found()) << a.cl_max.reason;
 
   PanellingOptions po;
   po.panels = request.panels;
@@ -68,7 +68,7 @@ TEST(EvaluatorClMax, FlatTopAtLowReynoldsNumberStaysOnTheBranch) {
   AnalysisRequest request;
   request.cl_max_at = flow;
   const SectionAnalysis a = make_viscous_evaluator()->analyse(naca_section("0015"), request);
-  ASSERT_TRUE(a.cl_max.found) << a.cl_max.reason;
+  ASSERT_TRUE(a.cl_max.found()) << a.cl_max.reason;
   EXPECT_NEAR(a.cl_max.cl_max, 1.128, 0.01);
 }
 
@@ -105,7 +105,7 @@ TEST(ViscousEvaluator, PolarIsThePolarSweep) {
   const viscous::Polar p = viscous::sweep_polar(solver, o);
   ASSERT_EQ(e.size(), p.points.size());
   for (std::size_t i = 0; i < e.size(); ++i) {
-    ASSERT_TRUE(e[i].converged) << alphas[i];
+    ASSERT_TRUE(e[i].converged()) << alphas[i];
     EXPECT_EQ(e[i].alpha_deg, p.points[i].alpha);
     EXPECT_EQ(e[i].cl, p.points[i].cl);  // the same solves in the same order: bit for bit
     EXPECT_EQ(e[i].cd, p.points[i].cd);

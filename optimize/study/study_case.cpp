@@ -10,6 +10,7 @@
 
 #include "common/error.h"
 #include "common/json_text.h"
+#include "common/number_text.h"
 
 namespace fulmar::study {
 namespace {
@@ -177,10 +178,7 @@ std::string point_origin(const StudyDefinition& s, const StudyPoint& pt) {
 }  // namespace
 
 std::string number_text(double v, int precision) {
-  if (!std::isfinite(v)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", precision, v);
-  return buf;
+  return std::isfinite(v) ? general_text(v, precision) : std::string();
 }
 
 StudyDefinition study_from_json(const json& root, const std::string& label,

@@ -11,6 +11,7 @@
 
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/number_text.h"
 #include "geometry/cst.h"
 #include "optimize/evaluation_record.h"
 #include "optimize/svg_plot.h"
@@ -37,10 +38,7 @@ std::string csv_field(const std::string& s) {
 }
 
 std::string fixed(double v, int decimals) {
-  if (!std::isfinite(v)) return "-";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-  return buf;
+  return fixed_text(v, decimals);
 }
 
 // The label of one design-point result: the point's name, with the scenario when the case has

@@ -155,7 +155,8 @@ TEST(StudyReport, CarriesTheCautionAndTheRules) {
   EXPECT_NE(m.find("Not finished: 4 5"), std::string::npos);
   EXPECT_NE(m.find("within 1 % of its limit"), std::string::npos);
   EXPECT_NE(m.find("chains of 2"), std::string::npos);
-  EXPECT_NE(m.find("| 3 | 0.14 | - |"), std::string::npos);  // failed analysis shown as "-"
+  EXPECT_NE(m.find("| 3 | 0.14 | n/a |"),
+            std::string::npos);  // failed analysis: "n/a" (number_text.h)
 }
 
 }  // namespace

@@ -1,15 +1,14 @@
 #include "optimize/study/study_run.h"
 
 #include <algorithm>
-#include <exception>
-#include <fstream>
 #include <mutex>
 #include <ostream>
 #include <sstream>
-#include <thread>
 
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/json_text.h"
+#include "common/parallel_for.h"
 #include "optimize/evaluation_record.h"
 #include "optimize/run.h"
 #include "optimize/section_problem.h"
@@ -20,16 +19,12 @@ namespace {
 namespace fs = std::filesystem;
 using nlohmann::json;
 
+// The JSON file at `p`, nullopt when there is none; a file that is not JSON is an InputError
+// naming its line and column.
 std::optional<json> read_json(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  if (!in) return std::nullopt;
-  std::stringstream ss;
-  ss << in.rdbuf();
-  try {
-    return json::parse(ss.str());
-  } catch (const json::exception&) {
-    return std::nullopt;
-  }
+  std::error_code ec;
+  if (!fs::is_regular_file(p, ec)) return std::nullopt;
+  return read_json_file(p);
 }
 
 json manifest(const StudyDefinition& study) {
@@ -142,8 +137,7 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
     optimize::design_space(head, optimize::resolve_baseline(head).shape);
   }
 
-  const int cores =
-      options.cores > 0 ? options.cores : std::max(1, int(std::thread::hardware_concurrency()));
+  const int cores = options.cores > 0 ? options.cores : int(core_count());
   int jobs = options.jobs > 0 ? options.jobs : cores;
   jobs = std::max(1, std::min(jobs, int(chains.size())));
   const int threads = std::max(1, cores / jobs);
@@ -151,9 +145,8 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
   fs::create_directories(dir);
   write_file_atomically(dir / kStudyManifest, manifest(study).dump(2) + "\n");
 
-  std::mutex mutex;  // guards the progress stream, the counters and the first error
-  std::exception_ptr error;
-  size_t next_chain = 0;
+  std::mutex mutex;     // guards the progress stream, the counters and `failed`
+  bool failed = false;  // a chain threw: the chains not yet started are skipped
   auto say = [&](const std::string& line) {
     if (!options.progress) return;
     *options.progress << line << "\n" << std::flush;
@@ -168,14 +161,14 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
   }
   const std::string total = std::to_string(points.size());
 
-  auto worker = [&]() {
-    for (;;) {
-      std::vector<StudyPoint> chain;
-      {
-        std::lock_guard<std::mutex> lock(mutex);
-        if (error || next_chain >= chains.size() || (options.stop && options.stop->load())) return;
-        chain = chains[next_chain++];
-      }
+  // One chain per job; the error of the lowest chain that threw is thrown again after all ended.
+  fulmar::parallel_for(chains.size(), unsigned(jobs), [&](std::size_t k) {
+    {
+      std::lock_guard<std::mutex> lock(mutex);
+      if (failed || (options.stop && options.stop->load())) return;
+    }
+    {
+      const std::vector<StudyPoint>& chain = chains[k];
       std::optional<PointRecord> pred;
       for (const StudyPoint& p : chain) {
         if (options.stop && options.stop->load()) return;
@@ -246,19 +239,14 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
               std::to_string(optimize::json_read::integer(r.summary, "evaluations", "summary")) +
               " analyses");
           pred = PointRecord{p, s.text, r.summary};
-        } catch (...) {
+        } catch (...) {  // thrown again by parallel_for once every chain has ended
           std::lock_guard<std::mutex> lock(mutex);
-          if (!error) error = std::current_exception();
-          return;
+          failed = true;
+          throw;
         }
       }
     }
-  };
-  std::vector<std::thread> pool;
-  for (int j = 1; j < jobs; ++j) pool.emplace_back(worker);
-  worker();
-  for (auto& t : pool) t.join();
-  if (error) std::rethrow_exception(error);
+  });
   if (options.stop && options.stop->load()) outcome.interrupted = true;
 
   const std::vector<PointRecord> done = finished_points(study, dir);

@@ -27,10 +27,10 @@ class AnalyticEvaluator : public SectionEvaluator {
     SectionAnalysis a;
     for (const auto& t : request.points) a.points.push_back(at_cl(m, t.flow, t.cl));
     if (request.cl_max_at) {
-      a.cl_max.found = m.thickness <= fail_above_thickness;
+      a.cl_max.status = m.thickness <= fail_above_thickness ? Status::kConverged : Status::kFailed;
       a.cl_max.cl_max = 0.6 + 5 * m.thickness + 12 * m.camber;
       a.cl_max.alpha_deg = alpha_deg(m, a.cl_max.cl_max) + 2;
-      if (!a.cl_max.found) a.cl_max.reason = "test: no peak";
+      if (!a.cl_max.found()) a.cl_max.reason = "test: no peak";
     }
     return a;
   }
@@ -58,8 +58,8 @@ class AnalyticEvaluator : public SectionEvaluator {
   }
   PointResult at_cl(const SectionMetrics& m, const FlowCondition& f, double cl) const {
     PointResult p;
-    p.converged = m.thickness <= fail_above_thickness;
-    if (!p.converged) p.reason = "test: injected failure";
+    p.status = m.thickness <= fail_above_thickness ? Status::kConverged : Status::kNotConverged;
+    if (!p.converged()) p.reason = "test: injected failure";
     p.cl = cl;
     p.alpha_deg = alpha_deg(m, cl);
     const double re = std::pow(3e6 / f.reynolds, 0.2);

@@ -57,7 +57,7 @@ std::vector<double> ContinuationOptions::angles() const {
 
 nlohmann::json Continuation::to_json() const {
   int converged = 0;
-  for (const ViscousResult& p : points) converged += p.converged;
+  for (const ViscousResult& p : points) converged += p.converged();
   const char* names[] = {"end", "stall", "failures"};
   return {
       {"solves", solves},       {"stop", names[static_cast<int>(stop)]}, {"angles", points.size()},
@@ -65,7 +65,7 @@ nlohmann::json Continuation::to_json() const {
 }
 
 double lift_jump(const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r) {
-  if (!before.valid || !r.converged || before.alpha == anchor.alpha) return 0.0;
+  if (!before.valid || !r.converged() || before.alpha == anchor.alpha) return 0.0;
   const double slope = (anchor.cl - before.cl) / (anchor.alpha - before.alpha);
   return r.cl - (anchor.cl + slope * (r.alpha - anchor.alpha));
 }
@@ -95,7 +95,7 @@ ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousRes
     ViscousResult u = solve(a, &cur.state);
     u.alpha = a;
     const bool smallest = std::abs(0.5 * h) < kMinSubStep * (1.0 - 1e-9);
-    if (!u.converged || (!smallest && std::abs(lift_jump(prior, cur, u)) > kLiftJumpCheck)) {
+    if (!u.converged() || (!smallest && std::abs(lift_jump(prior, cur, u)) > kLiftJumpCheck)) {
       h *= 0.5;
       continue;
     }
@@ -111,7 +111,7 @@ ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousRes
     before = prior;
     anchor = std::move(cur);
   }
-  if (!t.converged) t.alpha = target;
+  if (!t.converged()) t.alpha = target;
   return t;
 }
 
@@ -144,17 +144,16 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
     const double jump = lift_jump(*before, *anchor, r);
     const bool jumped = options.jump_check == JumpCheck::kBoth ? std::abs(jump) > kLiftJumpCheck
                                                                : jump > kLiftJumpCheck;
-    if (r.converged && !jumped) return r;
-    if (!r.converged && !options.recover_failures) return r;
+    if (r.converged() && !jumped) return r;
+    if (!r.converged() && !options.recover_failures) return r;
     const bool sub_step = previous_converged || options.sub_steps_after_failure;
     ViscousResult t;
     if (sub_step) {
       t = sub_step_march(single, target, *anchor, *before, &out.sub_steps);
-      if (t.converged) return t;
+      if (t.converged()) return t;
     }
-    if (r.converged) {
+    if (r.converged()) {
       if (options.keep_unconfirmed_jump) return r;
-      t.converged = false;
       t.status = SolveStatus::kFailed;
       t.alpha = target;
       t.reason = "the lift jumped " + fmt(jump, 3) + " off the line through the two angles " +
@@ -164,7 +163,7 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
       return t;
     }
     ViscousResult cold = call(target, nullptr);
-    if (cold.converged) return cold;
+    if (cold.converged()) return cold;
     r.reason += sub_step ? "; sub-steps down to " + fmt(kMinSubStep, 2) +
                                " deg from the last converged angle and a cold start also failed"
                          : "; cold start also failed";
@@ -179,13 +178,13 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
   LiftPoint lead_before;
   auto lead_in = [&] {
     lead = call(a0, nullptr);
-    have_lead = lead_previous = lead.converged;
+    have_lead = lead_previous = lead.converged();
     if (!have_lead && options.lead_in == ContinuationOptions::LeadIn::kColdFailure) return false;
     const double h = options.lead_in_step * (grid[start] > a0 ? 1.0 : -1.0);
     for (double a = a0 + h; std::abs(grid[start] - a) > 1e-9 && (grid[start] - a) * h > 0; a += h) {
       ViscousResult r = advance(have_lead ? &lead : nullptr, &lead_before, a, lead_previous);
-      lead_previous = r.converged;
-      if (r.converged) {
+      lead_previous = r.converged();
+      if (r.converged()) {
         if (have_lead) lead_before = {lead.alpha, lead.cl, true};
         lead = std::move(r);
         have_lead = true;
@@ -199,7 +198,7 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
         advance(have_lead ? &lead : nullptr, &lead_before, grid[start], lead_previous);
   } else {
     out.points[start] = call(grid[start], nullptr);
-    if (!out.points[start].converged && lead_in())
+    if (!out.points[start].converged() && lead_in())
       out.points[start] =
           advance(have_lead ? &lead : nullptr, &lead_before, grid[start], lead_previous);
   }
@@ -209,21 +208,21 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
   for (int dir : {+1, -1}) {
     if (dir < 0 && !options.march_down) break;
     // The last converged result of this march (its state warm-starts the next angle).
-    bool have_anchor = out.points[start].converged || have_lead;
-    ViscousResult anchor = out.points[start].converged ? out.points[start] : lead;
-    bool previous_converged = out.points[start].converged;
+    bool have_anchor = out.points[start].converged() || have_lead;
+    ViscousResult anchor = out.points[start].converged() ? out.points[start] : lead;
+    bool previous_converged = out.points[start].converged();
     LiftPoint before;  // the converged angle before the anchor in this march
     // The upward march's stop rules: lifts of its converged grid angles, failures in a row.
     std::vector<double> lifts;
-    if (out.points[start].converged) lifts.push_back(out.points[start].cl);
-    int failures = out.points[start].converged ? 0 : 1;
+    if (out.points[start].converged()) lifts.push_back(out.points[start].cl);
+    int failures = out.points[start].converged() ? 0 : 1;
     int i = start + dir;
     for (; i >= 0 && i < n; i += dir) {
       ViscousResult r =
           advance(have_anchor ? &anchor : nullptr, &before, grid[i], previous_converged);
       r.alpha = grid[i];
-      previous_converged = r.converged;
-      if (r.converged) {
+      previous_converged = r.converged();
+      if (r.converged()) {
         if (have_anchor) before = {anchor.alpha, anchor.cl, true};
         anchor = r;
         have_anchor = true;
@@ -231,7 +230,7 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
       out.points[i] = std::move(r);
       if (dir < 0) continue;
       out.last_up = i;
-      if (out.points[i].converged) {
+      if (out.points[i].converged()) {
         failures = 0;
         lifts.push_back(out.points[i].cl);
         if (std::isfinite(options.stop_at_lift_drop) &&
@@ -258,10 +257,10 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
       }
     }
     // Creep beyond a maximum at the last converged angle below a failed one.
-    if (dir > 0 && options.creep_step > 0.0 && !out.points[out.last_up].converged) {
+    if (dir > 0 && options.creep_step > 0.0 && !out.points[out.last_up].converged()) {
       int best = -1, last = -1;
       for (int j = start; j <= out.last_up; ++j) {
-        if (!out.points[j].converged) continue;
+        if (!out.points[j].converged()) continue;
         last = j;
         if (best < 0 || out.points[j].cl > out.points[best].cl) best = j;
       }
@@ -269,7 +268,7 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
         const ViscousResult* from = &out.points[best];
         for (double a = from->alpha + options.creep_step; a <= 60.0; a += options.creep_step) {
           ViscousResult r = single(a, &from->state);
-          if (!r.converged || r.cl <= from->cl) break;
+          if (!r.converged() || r.cl <= from->cl) break;
           out.creep.push_back(std::move(r));
           from = &out.creep.back();
         }
@@ -286,14 +285,14 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
   for (bool changed = true; changed;) {
     changed = false;
     for (int i = 0; i < n; ++i) {
-      if (out.points[i].converged) continue;
+      if (out.points[i].converged()) continue;
       const int far = i > start ? 1 : 0;  // index into {i - 1, i + 1}
       for (int side : {far, 1 - far}) {
         const int nb = side == 0 ? i - 1 : i + 1;
-        if (nb < 0 || nb >= n || tried[i][side] || !out.points[nb].converged) continue;
+        if (nb < 0 || nb >= n || tried[i][side] || !out.points[nb].converged()) continue;
         tried[i][side] = true;
         ViscousResult r = call(grid[i], &out.points[nb].state);
-        if (r.converged) {
+        if (r.converged()) {
           r.alpha = grid[i];
           out.points[i] = std::move(r);
           changed = true;
@@ -315,7 +314,7 @@ LiftMaximum refine_lift_maximum(const std::vector<ViscousResult>& known, const P
   std::vector<ViscousResult> made;  // results of this refinement (their states warm-start)
   made.reserve(64);
   for (const ViscousResult& r : known)
-    if (r.converged) samples.push_back({r.alpha, r.cl, &r.state});
+    if (r.converged()) samples.push_back({r.alpha, r.cl, &r.state});
   std::sort(samples.begin(), samples.end(), [](auto& a, auto& b) { return a.alpha < b.alpha; });
   int k = -1;
   for (int i = 0; i < static_cast<int>(samples.size()); ++i)
@@ -353,9 +352,9 @@ LiftMaximum refine_lift_maximum(const std::vector<ViscousResult>& known, const P
       if (!near || std::abs(s.alpha - alpha) < std::abs(near->alpha - alpha)) near = &s;
     ViscousResult r = counted(alpha, near ? near->state : nullptr);
     r.alpha = alpha;
-    if (r.converged && near && r.cl > parabola(alpha) + kLiftJumpCheck) {
+    if (r.converged() && near && r.cl > parabola(alpha) + kLiftJumpCheck) {
       ViscousResult anchor;
-      anchor.converged = true;
+      anchor.status = SolveStatus::kConverged;
       anchor.alpha = near->alpha;
       anchor.cl = near->cl;
       anchor.state = *near->state;
@@ -367,7 +366,7 @@ LiftMaximum refine_lift_maximum(const std::vector<ViscousResult>& known, const P
           before = {s.alpha, s.cl, true};
       r = sub_step_march(counted, alpha, anchor, before, nullptr);
     }
-    if (!r.converged) return -std::numeric_limits<double>::infinity();
+    if (!r.converged()) return -std::numeric_limits<double>::infinity();
     if (made.size() == made.capacity()) return r.cl;  // keep the states' addresses stable
     made.push_back(std::move(r));
     samples.push_back({alpha, made.back().cl, &made.back().state});

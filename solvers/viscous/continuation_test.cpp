@@ -20,7 +20,6 @@ ViscousResult at(double alpha, double cl, bool converged = true) {
   ViscousResult r;
   r.alpha = alpha;
   r.cl = cl;
-  r.converged = converged;
   r.status = converged ? SolveStatus::kConverged : SolveStatus::kNotConverged;
   r.state.stagnation_node = 0;
   r.state.stations = {StationState{alpha, 1e-4, 2e-4, 1.0}};
@@ -74,7 +73,7 @@ TEST(March, StopsAtTheStall) {
   EXPECT_EQ(c.solves, 7);
   EXPECT_EQ(calls, 7);
   for (int i = 7; i < static_cast<int>(c.points.size()); ++i) {
-    EXPECT_FALSE(c.points[i].converged);
+    EXPECT_FALSE(c.points[i].converged());
     EXPECT_NE(c.points[i].reason.find("stall"), std::string::npos);
   }
 }
@@ -110,11 +109,11 @@ TEST(March, AnUnconfirmedJumpIsAFailureOrKept) {
   ContinuationOptions o = coarse_upward();
   o.alpha_to = 12;
   const Continuation strict = march(solve, attempt, 0.0, o);
-  EXPECT_FALSE(strict.points[3].converged);
+  EXPECT_FALSE(strict.points[3].converged());
   EXPECT_NE(strict.points[3].reason.find("lift jumped"), std::string::npos);
   o.keep_unconfirmed_jump = true;
   const Continuation kept = march(solve, attempt, 0.0, o);
-  ASSERT_TRUE(kept.points[3].converged);
+  ASSERT_TRUE(kept.points[3].converged());
   EXPECT_NEAR(kept.points[3].cl, 1.2, 1e-12);
 }
 
@@ -126,7 +125,7 @@ TEST(March, LeadInAfterAFailedColdStart) {
   ContinuationOptions o = coarse_upward();
   o.alpha_to = 8;
   const Continuation c = march(solve, solve, 0.0, o);
-  EXPECT_TRUE(c.points[0].converged);
+  EXPECT_TRUE(c.points[0].converged());
   EXPECT_EQ(c.solves, 5);  // cold 4, cold 0, warm 4, 6, 8
 }
 
@@ -176,7 +175,7 @@ TEST(March, Naca0012AtOneMillion) {
   EXPECT_EQ(c.stop, Continuation::Stop::kStall);
   ASSERT_GE(c.last_up, 5);
   EXPECT_LE(c.last_up, 7);
-  for (int i = 0; i <= c.last_up; ++i) EXPECT_TRUE(c.points[i].converged) << c.points[i].alpha;
+  for (int i = 0; i <= c.last_up; ++i) EXPECT_TRUE(c.points[i].converged()) << c.points[i].alpha;
 }
 
 }  // namespace

@@ -35,7 +35,7 @@ void add_note(std::string& note, const std::string& text) {
 std::vector<const ViscousResult*> converged_by_alpha(const std::vector<ViscousResult>& points) {
   std::vector<const ViscousResult*> c;
   for (const ViscousResult& p : points)
-    if (p.converged) c.push_back(&p);
+    if (p.converged()) c.push_back(&p);
   std::stable_sort(c.begin(), c.end(), [](auto* a, auto* b) { return a->alpha < b->alpha; });
   return c;
 }
@@ -131,7 +131,7 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
   std::vector<const ViscousResult*> lift = c;
   if (extra) {
     for (const ViscousResult& e : *extra)
-      if (e.converged && e.alpha >= c.front()->alpha - 1e-9 && e.alpha <= last_alpha_any + 1e-9)
+      if (e.converged() && e.alpha >= c.front()->alpha - 1e-9 && e.alpha <= last_alpha_any + 1e-9)
         lift.push_back(&e);
     std::stable_sort(lift.begin(), lift.end(),
                      [](auto* a, auto* b) { return a->alpha < b->alpha; });
@@ -312,7 +312,7 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
   if (options.refine_cl_max && s.cl_max_bracketed) {
     std::vector<ViscousResult> known;
     for (const ViscousResult& p : polar.points)
-      if (p.converged && std::abs(p.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9)
+      if (p.converged() && std::abs(p.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9)
         known.push_back(p);
     for (const ViscousResult& t : c.sub_steps)
       if (std::abs(t.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9 &&

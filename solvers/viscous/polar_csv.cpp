@@ -31,7 +31,7 @@ PolarCsvRow polar_csv_row(const ViscousResult& r, double re, double mach) {
   row.cm = r.cm;
   row.transition_upper = r.transition_upper;
   row.transition_lower = r.transition_lower;
-  row.converged = r.converged;
+  row.converged = r.converged();
   row.iterations = r.iterations;
   return row;
 }

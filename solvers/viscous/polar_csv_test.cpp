@@ -20,7 +20,7 @@ TEST(PolarCsv, HeaderAndOneRowPerPoint) {
   r.cm = -0.05;
   r.transition_upper = 0.4;
   r.transition_lower = 0.75;
-  r.converged = true;
+  r.status = SolveStatus::kConverged;
   r.iterations = 7;
   PolarCsvRow row = polar_csv_row(r, 3e6, 0.1);
   row.section = "NACA 2412";

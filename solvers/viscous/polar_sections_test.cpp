@@ -27,7 +27,7 @@ ViscousSolver section_solver(const std::string& naca, double re) {
 // The number of converged points of a polar.
 int converged_points(const Polar& p) {
   int n = 0;
-  for (const ViscousResult& r : p.points) n += r.converged;
+  for (const ViscousResult& r : p.points) n += r.converged();
   return n;
 }
 
@@ -92,7 +92,7 @@ TEST(SweepPolar, Naca0012MaximumLiftAtSixMillion) {
   ASSERT_TRUE(s.cl_max_bracketed) << s.note;
   double grid_max = -1.0, grid_alpha = 0.0;
   for (const ViscousResult& r : p.points) {
-    if (r.converged && r.cl > grid_max) {
+    if (r.converged() && r.cl > grid_max) {
       grid_max = r.cl;
       grid_alpha = r.alpha;
     }
@@ -166,7 +166,7 @@ TEST(SweepPolar, CoarseStepsFollowTheFineStepBranchNearStall) {
   for (int i = 0; i < 7; ++i) {
     const ViscousResult& c = pc.points[static_cast<std::size_t>(i)];
     const ViscousResult& f = pf.points[static_cast<std::size_t>(4 * i)];
-    ASSERT_TRUE(c.converged && f.converged) << c.alpha;
+    ASSERT_TRUE(c.converged() && f.converged()) << c.alpha;
     EXPECT_NEAR(c.cl, f.cl, 1e-3) << c.alpha << " deg";
   }
 }

@@ -56,7 +56,7 @@ TEST(SweepPolar, MarchesOutwardFromZeroLiftWithWarmStarts) {
   ASSERT_EQ(p.points.size(), 8u);
   for (int i = 0; i < 8; ++i) {
     EXPECT_DOUBLE_EQ(p.points[i].alpha, -3.0 + i);
-    EXPECT_TRUE(p.points[i].converged);
+    EXPECT_TRUE(p.points[i].converged());
   }
   ASSERT_EQ(s.calls.size(), 8u);
   EXPECT_DOUBLE_EQ(s.calls[0].first, -1.0);
@@ -79,7 +79,7 @@ TEST(SweepPolar, SubStepsRecoverFailedWarmStarts) {
   o.alpha_from = 0;
   o.alpha_to = 6;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   for (const auto& [a, w] : s.calls) {
     if (!std::isnan(w)) {
       EXPECT_LE(std::abs(a - w), 1.0 + 1e-12);
@@ -99,7 +99,7 @@ TEST(SweepPolar, LeadInFromZeroLiftWhenTheGridDoesNotReachIt) {
   o.alpha_from = 8;
   o.alpha_to = 12;
   const Polar p = sweep_polar(s.solver(), 0.4, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   ASSERT_FALSE(s.calls.empty());
   EXPECT_DOUBLE_EQ(s.calls[0].first, 0.4);  // the lead-in starts cold at zero lift
   EXPECT_TRUE(std::isnan(s.calls[0].second));
@@ -121,7 +121,7 @@ TEST(SweepPolar, FailedAngleIsRetriedFromTheFarSide) {
   o.alpha_from = 5;
   o.alpha_to = 11;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   ASSERT_FALSE(s.calls.empty());
   EXPECT_DOUBLE_EQ(s.calls.back().first, 8.0);
   EXPECT_DOUBLE_EQ(s.calls.back().second, 9.0);
@@ -136,7 +136,7 @@ TEST(SweepPolar, FailedStartIsBackFilledFromANeighbour) {
   o.alpha_from = -2;
   o.alpha_to = 2;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
-  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_TRUE(r.converged()) << r.alpha;
   EXPECT_DOUBLE_EQ(s.calls.back().first, 0.0);
   EXPECT_FALSE(std::isnan(s.calls.back().second));
 }
@@ -157,7 +157,7 @@ TEST(SweepPolar, AJumpToAnotherBranchIsCheckedBySubSteps) {
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
-    EXPECT_TRUE(r.converged) << r.alpha;
+    EXPECT_TRUE(r.converged()) << r.alpha;
     EXPECT_NEAR(r.cl, 0.1 * r.alpha, 1e-12) << r.alpha;
   }
   EXPECT_GT(calls, 9);  // the sub-steps were made
@@ -173,7 +173,7 @@ TEST(SweepPolar, ARealLiftJumpIsKept) {
   o.refine_cl_max = false;
   const Polar p = sweep_polar(solve, 0.0, o);
   for (const ViscousResult& r : p.points) {
-    EXPECT_TRUE(r.converged) << r.alpha;
+    EXPECT_TRUE(r.converged()) << r.alpha;
     EXPECT_NEAR(r.cl, 0.1 * r.alpha - (r.alpha > 6.2 ? 0.3 : 0.0), 1e-12) << r.alpha;
   }
   EXPECT_TRUE(p.summary.cl_max_bracketed);
@@ -190,7 +190,7 @@ TEST(SweepPolar, StallBeyondAnAngleGivesAnUnbracketedMaximum) {
   o.alpha_to = 13;
   const Polar p = sweep_polar(s.solver(), 0.0, o);
   ASSERT_EQ(p.points.size(), 8u);
-  for (const ViscousResult& r : p.points) EXPECT_EQ(r.converged, r.alpha <= 10.0) << r.alpha;
+  for (const ViscousResult& r : p.points) EXPECT_EQ(r.converged(), r.alpha <= 10.0) << r.alpha;
   EXPECT_DOUBLE_EQ(p.points.back().alpha, 13.0);
   ASSERT_TRUE(p.summary.has_cl_max);
   EXPECT_FALSE(p.summary.cl_max_bracketed);

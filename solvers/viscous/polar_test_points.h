@@ -12,7 +12,6 @@ inline ViscousResult point(double alpha, double cl, double cd, double cm, bool c
   r.cl = cl;
   r.cd = cd;
   r.cm = cm;
-  r.converged = converged;
   r.status = converged ? SolveStatus::kConverged : SolveStatus::kNotConverged;
   return r;
 }

@@ -81,7 +81,6 @@ void extract_result(const CoupledSystem& fin, const InviscidSolver& inviscid,
   bool finite = true;
   for (double v : scalars) finite = finite && std::isfinite(v);
   if (!finite) {
-    res.converged = false;
     res.status = SolveStatus::kFailed;
     res.reason += "; non-finite loads, outputs zeroed";
     res.cl = res.cd = res.cm = res.cd_friction = res.cd_pressure = 0.0;

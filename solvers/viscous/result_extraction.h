@@ -12,7 +12,7 @@ namespace fulmar::viscous::detail {
 // Fills the outputs of `res` from the final state `fin` of a solve at `alpha_deg` (degrees) by
 // `inviscid` (the solver `fin` was made with) in `flow`: ue, cp, theta, dstar, shape, cf,
 // amplification (#nodes each, node order), the wake vectors (#wake nodes), cl, cd, cd_friction,
-// cd_pressure, cm, the transition x/c and state. Expects res.converged, status and reason set;
+// cd_pressure, cm, the transition x/c and state. Expects res.status and res.reason set;
 // when a load is not finite, marks res failed, zeroes the loads and clears the state.
 void extract_result(const CoupledSystem& fin, const InviscidSolver& inviscid,
                     const FlowConditions& flow, double alpha_deg, ViscousResult& res);

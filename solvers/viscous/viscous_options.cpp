@@ -1,4 +1,4 @@
-// The rules of the viscous options and the names of the solve statuses.
+// The rules of the viscous options.
 #include "solvers/viscous/viscous_options.h"
 
 #include <sstream>
@@ -64,25 +64,6 @@ void ViscousOptions::Validate() const {
   require(wake_length >= 1.0 && wake_length <= 10.0, "wake_length", wake_length,
           "must be in [1, 10] chords");
   newton.Validate();
-}
-
-std::string to_string(SolveStatus status) {
-  switch (status) {
-    case SolveStatus::kConverged:
-      return "converged";
-    case SolveStatus::kNotConverged:
-      return "not_converged";
-    case SolveStatus::kFailed:
-      return "failed";
-  }
-  return "failed";
-}
-
-SolveStatus solve_status_from_string(const std::string& text) {
-  for (SolveStatus s : {SolveStatus::kConverged, SolveStatus::kNotConverged, SolveStatus::kFailed})
-    if (to_string(s) == text) return s;
-  throw InputError("solve status \"" + text +
-                   "\": must be one of converged, not_converged, failed");
 }
 
 }  // namespace fulmar::viscous

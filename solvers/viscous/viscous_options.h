@@ -3,6 +3,8 @@
 // step limits) with their one set of rules (Validate), and the status a solve ends in.
 #include <string>
 
+#include "common/status.h"
+
 #include "solvers/viscous/transition.h"
 
 namespace fulmar::viscous {
@@ -72,8 +74,7 @@ struct ViscousOptions {
   void Validate() const;
 };
 
-enum class SolveStatus { kConverged, kNotConverged, kFailed };
-std::string to_string(SolveStatus status);  // "converged", "not_converged", "failed"
-SolveStatus solve_status_from_string(const std::string& text);  // throws InputError
+// How a solve ended: the shared status of common/status.h (a solve is never kStopped).
+using SolveStatus = fulmar::Status;
 
 }  // namespace fulmar::viscous

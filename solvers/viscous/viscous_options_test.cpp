@@ -34,13 +34,6 @@ TEST(ViscousOptions, ValidateNamesTheField) {
   o = ViscousOptions{};
   o.trip_upper = 1.5;
   EXPECT_THROW(o.Validate(), InputError);
-  EXPECT_EQ(solve_status_from_string("not_converged"), SolveStatus::kNotConverged);
-  EXPECT_THROW(solve_status_from_string("fine"), InputError);
-}
-
-TEST(ViscousOptions, StatusNamesRoundTrip) {
-  for (SolveStatus s : {SolveStatus::kConverged, SolveStatus::kNotConverged, SolveStatus::kFailed})
-    EXPECT_EQ(solve_status_from_string(to_string(s)), s);
 }
 
 // The ranges of the flow and iteration fields, at their bounds and just beyond.

@@ -53,7 +53,7 @@ nlohmann::json ViscousResult::to_json() const {
   j["cd_pressure"] = cd_pressure;
   j["transition_upper"] = transition_upper;
   j["transition_lower"] = transition_lower;
-  j["converged"] = converged;
+  j["converged"] = converged();
   j["status"] = to_string(status);
   j["reason"] = reason;
   j["residual"] = residual;
@@ -121,11 +121,11 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
   };
   if (warm) {
     ViscousResult r = solve_on(model, alpha_deg, warm_start);
-    if (r.converged) return finish(std::move(r), "warm start");
+    if (r.converged()) return finish(std::move(r), "warm start");
     total += r.iterations;
   }
   ViscousResult cold = solve_on(model, alpha_deg, nullptr);
-  if (cold.converged || !warm)
+  if (cold.converged() || !warm)
     return finish(std::move(cold), warm ? "cold start after the warm start failed" : "");
   total += cold.iterations;
   // Continuation from the warm state's angle: halve the remaining step until a sub-step
@@ -138,14 +138,15 @@ ViscousResult ViscousSolver::solve_alpha(double alpha_deg, const ViscousState* w
     const double target = from.alpha + step;
     ViscousResult r = solve_from(target, &from);
     total += r.iterations;
-    if (!r.converged) {
+    if (!r.converged()) {
       ++level;
       continue;
     }
     from = r.state;
     step = alpha_deg - from.alpha;
     ViscousResult last = solve_on(model, alpha_deg, &from);
-    if (last.converged) return finish(std::move(last), "continuation from the warm start's angle");
+    if (last.converged())
+      return finish(std::move(last), "continuation from the warm start's angle");
     total += last.iterations;
   }
   return finish(std::move(cold), "warm, cold and continuation starts all failed");
@@ -241,7 +242,6 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.residual = r;
   std::ostringstream msg;
   if (done) {
-    res.converged = true;
     res.status = SolveStatus::kConverged;
     msg << "converged: max residual " << r << " < tolerance " << options_.tolerance << " after "
         << it << " Newton iterations";
@@ -256,7 +256,7 @@ ViscousResult ViscousSolver::solve_on(const CouplingModel& model, double alpha_d
   res.reason = msg.str();
 
   extract_result(fin, inviscid_, flow_, alpha_deg, res);
-  if (!res.converged) res.state = ViscousState{};
+  if (!res.converged()) res.state = ViscousState{};
   return res;
 }
 
@@ -268,11 +268,11 @@ ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm
   ViscousResult r0 = solve_alpha(a0, warm_start);
   // A first angle that does not converge: try a few neighbours before giving up.
   for (double offset : {-0.7, 0.6, -1.5, 1.3, -2.5}) {
-    if (r0.converged) break;
+    if (r0.converged()) break;
     r0 = solve_alpha(a0 + offset, warm_start);
-    if (r0.converged) a0 += offset;
+    if (r0.converged()) a0 += offset;
   }
-  if (!r0.converged) {
+  if (!r0.converged()) {
     r0.reason = "target cl not reached: no converged solution near the inviscid angle " +
                 std::to_string(inv.alpha / kDeg) + " deg; last: " + r0.reason;
     return r0;
@@ -280,7 +280,7 @@ ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm
   double a1 = a0 + kClFirstStep;
   ViscousResult r1 = solve_alpha(a1, &r0.state);
   for (int k = 0; k < kClIterations; ++k) {
-    if (!r1.converged) return r1;
+    if (!r1.converged()) return r1;
     if (std::abs(r1.cl - cl_target) < kClTolerance) return r1;
     const double slope = (r1.cl - r0.cl) / (a1 - a0);
     if (!(std::abs(slope) > 1e-4)) break;
@@ -290,7 +290,6 @@ ViscousResult ViscousSolver::solve_cl(double cl_target, const ViscousState* warm
     a1 = a2;
     r1 = solve_alpha(a1, &r0.state);
   }
-  r1.converged = false;
   r1.status = SolveStatus::kNotConverged;
   std::ostringstream msg;
   msg << "target cl " << cl_target << " not reached: cl " << r1.cl << " at alpha " << r1.alpha;

@@ -45,10 +45,10 @@ struct NewtonIteration {
   std::string limited_by;  // what limited the step ("" when the full step was taken)
 };
 
-struct ViscousResult {
-  bool converged = false;
-  SolveStatus status = SolveStatus::kFailed;
-  std::string reason;     // what happened, with the measured residual against the tolerance
+// How the solve ended (Outcome: status, and the reason with the measured residual against the
+// tolerance), then the values.
+struct ViscousResult : Outcome {
+  bool converged() const { return status == Status::kConverged; }
   double residual = 0.0;  // final max |residual|
   int iterations = 0;
   std::vector<double> residual_history;  // max |residual| before each Newton step

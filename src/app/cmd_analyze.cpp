@@ -182,7 +182,7 @@ void run_viscous(const AnalyzeArgs& args) {
                 << " not written\n";
     }
   }
-  if (!r.converged) {
+  if (!r.converged()) {
     std::cerr << "fulmar: warning: the viscous solution did not converge (" << r.reason
               << "); the numbers are the last iterate, not a solution\n";
   }
@@ -206,7 +206,7 @@ void run_viscous(const AnalyzeArgs& args) {
   std::printf("  transition   %s\n", transition_words(options).c_str());
   std::printf("  analysis     %d panels, %d Newton iterations\n", a.panels, r.iterations);
   // The reason starts with what happened ("converged: max residual ..."); a failure is shouted.
-  std::printf("  result       %s%s\n\n", r.converged ? "" : "NOT CONVERGED - ", r.reason.c_str());
+  std::printf("  result       %s%s\n\n", r.converged() ? "" : "NOT CONVERGED - ", r.reason.c_str());
   std::printf("  angle        %s deg%s\n", fixed_text(r.alpha, 3).c_str(),
               args.cl ? (" (for cl " + fixed_text(*args.cl, 4) + ")").c_str() : "");
   std::printf("  forces       cl %s   cd %s   cm c/4 %s\n", fixed_text(r.cl, 5).c_str(),

@@ -234,11 +234,11 @@ void print_polar_text(const std::string& name, int panels, const ReynoldsPolar& 
                    {"status", "", 13, true}});
   int converged = 0;
   for (const viscous::ViscousResult& r : p.polar.points) {
-    converged += r.converged;
+    converged += r.converged();
     table.add_row({fixed_text(r.alpha, 2), fixed_text(r.cl, 4), fixed_text(r.cd, 5),
                    fixed_text(r.cm, 4), fixed_text(r.cd_friction, 5), fixed_text(r.cd_pressure, 5),
                    fixed_text(r.transition_upper, 3), fixed_text(r.transition_lower, 3),
-                   r.converged ? "converged" : "NOT converged"});
+                   r.converged() ? "converged" : "NOT converged"});
   }
   std::printf("%s\n", table.str().c_str());
   const nlohmann::json s = p.polar.summary.to_json();
@@ -281,7 +281,7 @@ void run_viscous(const PolarArgs& args) {
 
   for (const ReynoldsPolar& p : polars) {
     int failed = 0;
-    for (const viscous::ViscousResult& r : p.polar.points) failed += !r.converged;
+    for (const viscous::ViscousResult& r : p.polar.points) failed += !r.converged();
     if (failed > 0) {
       std::cerr << "fulmar: warning: Re " << p.options.reynolds << ": " << failed << " of "
                 << p.polar.points.size()
