@@ -64,7 +64,8 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
   row.ok = e.ok;
   row.status = e.status;
   row.objective = e.objective;
-  const json& points = e.detail.at("points");
+  const json detail = to_json(e.detail);
+  const json& points = detail.at("points");
   for (const auto& p : points)
     if (p.value("scenario", std::string()) == c.scenarios.front().name)
       row.cd.push_back(p.value("converged", false) ? p.value("cd", std::nan("")) : NAN);
@@ -72,10 +73,10 @@ GridRow evaluate_naca(const Case& base, const SectionEvaluator& ev, const std::s
   for (const auto& p : points)
     if (p.value("converged", false))
       row.cm_worst = std::min(row.cm_worst, p.value("cm", std::nan("")));
-  const json& clm = e.detail.at("cl_max");
+  const json& clm = detail.at("cl_max");
   if (clm.value("found", false)) row.cl_max = clm.value("cl_max", std::nan(""));
   row.feasible = e.ok;
-  for (const auto& t : e.detail.at("constraints"))
+  for (const auto& t : detail.at("constraints"))
     if (!t.value("satisfied", false)) {
       row.feasible = false;
       row.violated += (row.violated.empty() ? "" : ",") + t.value("name", std::string("?"));

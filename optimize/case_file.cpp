@@ -6,9 +6,16 @@
 #include <fstream>
 #include <set>
 #include <sstream>
+#include <tuple>
 
+#include "cad/placement.h"
+#include "common/enum_names.h"
 #include "common/error.h"
+#include "common/json_text.h"
+#include "common/number_text.h"
+#include "common/rule_check.h"
 #include "geometry/naca.h"
+#include "solvers/viscous/viscous_solver.h"
 
 namespace fulmar::optimize {
 namespace {
@@ -16,11 +23,28 @@ namespace {
 using nlohmann::json;
 
 std::string number_text(double v) {
-  std::ostringstream s;
-  s.precision(6);
-  s << v;
-  return s.str();
+  return general_text(v, 6);
 }
+
+// The lift coefficients a design point may ask for (a case rule: below -0.5 or above 2 no clean
+// section flies level).
+constexpr double kDesignClMin = -0.5, kDesignClMax = 2.0;
+
+// The rule of one field of the viscous analysis, as its own Validate() states it: the case file
+// repeats none of the solver's ranges.
+auto viscous_rule(double viscous::ViscousOptions::*field) {
+  return [field](double value) {
+    viscous::ViscousOptions o;
+    o.*field = value;
+    o.Validate();
+  };
+}
+
+const EnumNames<Algorithm> kAlgorithms{{Algorithm::slsqp, "slsqp"},
+                                       {Algorithm::mma, "mma"},
+                                       {Algorithm::cobyla, "cobyla"},
+                                       {Algorithm::isres, "isres"},
+                                       {Algorithm::multistart, "multistart"}};
 
 // A JSON node with its pointer path; object readers record the keys they consume so that any key
 // left over is reported as unknown.
@@ -109,6 +133,39 @@ class Reader {
     return v;
   }
 
+  // The number here, accepted by `rule` (a callable taking the value that throws InputError, as
+  // a Validate() does); its error is re-worded with this path and the value.
+  template <class Rule>
+  double number_by(Rule&& rule) const {
+    const double v = number();
+    try {
+      rule(v);
+    } catch (const InputError& e) {
+      throw InputError(*label_ + ": " +
+                       placed_rule(path_.empty() ? "/" : path_, number_text(v), e.what()));
+    }
+    return v;
+  }
+
+  // Runs `validate` on options read from this object; its InputError "<prefix>.<field> = value:
+  // rule" is reported at this object's path / <field> (dots become slashes).
+  template <class Validate>
+  void validate_fields(const std::string& prefix, Validate&& validate) const {
+    try {
+      validate();
+    } catch (const InputError& e) {
+      const std::string m = e.what();
+      const auto eq = m.find(" = ");
+      if (m.rfind(prefix + ".", 0) != 0 || eq == std::string::npos) fail(m);
+      std::string field = m.substr(prefix.size() + 1, eq - prefix.size() - 1);
+      for (char& c : field)
+        if (c == '.') c = '/';
+      const auto colon = m.find(": ", eq);
+      const std::string got = m.substr(eq + 3, colon == std::string::npos ? 0 : colon - eq - 3);
+      fail_at(path_ + "/" + field, stated_rule(m) + " (got " + got + ")");
+    }
+  }
+
   double number_or(const std::string& key, double fallback) {
     auto c = optional_child(key);
     return c ? c->number() : fallback;
@@ -122,31 +179,60 @@ class Reader {
 };
 
 Airplane read_airplane(Reader r, double& wing_to_section) {
-  Airplane a;
-  a.mass = r.child("mass").positive();
-  a.wing_area = r.child("wing_area").positive();
-  a.chord = r.child("chord").positive();
+  // Each value by the rule of src/flight (Airplane::Validate, stall_conditions).
+  Airplane a{1, 1, 1};
+  a.mass = r.child("mass").number_by([](double v) { Airplane{v, 1, 1}.Validate(); });
+  a.wing_area = r.child("wing_area").number_by([](double v) { Airplane{1, v, 1}.Validate(); });
+  a.chord = r.child("chord").number_by([](double v) { Airplane{1, 1, v}.Validate(); });
   if (auto f = r.optional_child("wing_to_section"))
-    wing_to_section = f->in_range(0, 1.2, true, false);
+    wing_to_section = f->number_by([](double v) {
+      stall_conditions(Airplane{1, 1, 1}, 1.0, 0.0, v);
+    });
   r.finish();
   return a;
+}
+
+// ncrit, trip_upper, trip_lower of a transition block or scenario, by the viscous analysis' rules.
+void read_transition_values(Reader& r, TransitionScenario& s) {
+  if (auto c = r.optional_child("ncrit"))
+    s.ncrit = c->number_by(viscous_rule(&viscous::ViscousOptions::n_crit));
+  if (auto c = r.optional_child("trip_upper"))
+    s.trip_upper = c->number_by(viscous_rule(&viscous::ViscousOptions::trip_upper));
+  if (auto c = r.optional_child("trip_lower"))
+    s.trip_lower = c->number_by(viscous_rule(&viscous::ViscousOptions::trip_lower));
 }
 
 TransitionScenario read_scenario(Reader r, const TransitionScenario& defaults) {
   TransitionScenario s = defaults;
   if (auto c = r.optional_child("name")) s.name = c->string();
-  if (auto c = r.optional_child("ncrit")) s.ncrit = c->in_range(0, 20, true, false);
-  if (auto c = r.optional_child("trip_upper")) s.trip_upper = c->in_range(0, 1, true, false);
-  if (auto c = r.optional_child("trip_lower")) s.trip_lower = c->in_range(0, 1, true, false);
+  read_transition_values(r, s);
   if (auto c = r.optional_child("weight")) s.weight = c->positive();
   r.finish();
   return s;
 }
 
 double read_mach(Reader r) {
-  // Above about M 0.7 sections of this thickness meet shocks, which the analysis does not model
-  // (Karman-Tsien compressibility only: common practice).
-  return r.in_range(0, 0.7, false, true);
+  return r.number_by(viscous_rule(&viscous::ViscousOptions::mach));
+}
+
+double read_reynolds(Reader r) {
+  return r.number_by(viscous_rule(&viscous::ViscousOptions::reynolds));
+}
+
+// Reynolds and Mach numbers that came from a flight point (speed, altitude) must suit the viscous
+// analysis too; the speed is named as the place.
+void check_flight_flow(const Reader& r, const std::string& speed_path, double reynolds,
+                       double mach) {
+  for (auto [value, name, field] :
+       {std::tuple{reynolds, "Reynolds number", &viscous::ViscousOptions::reynolds},
+        std::tuple{mach, "Mach number", &viscous::ViscousOptions::mach}}) {
+    try {
+      viscous_rule(field)(value);
+    } catch (const InputError& e) {
+      r.fail_at(speed_path, std::string("gives a ") + name + " of " + number_text(value) +
+                                "; the viscous analysis' " + stated_rule(e.what()));
+    }
+  }
 }
 
 DesignPoint read_point(Reader r, const std::optional<Airplane>& airplane, size_t index) {
@@ -163,24 +249,24 @@ DesignPoint read_point(Reader r, const std::optional<Airplane>& airplane, size_t
     if (!airplane)
       r.fail_at(r.path() + "/speed", "a flight point needs the airplane (missing /airplane)");
     p.from_airplane = true;
-    p.speed = r.child("speed").positive();
-    Reader alt = r.child("altitude");
-    p.altitude = alt.in_range(0, kAtmosphereCeiling, false, false);
+    // Each value by the rules of src/flight (cruise_conditions, standard_atmosphere).
+    p.speed = r.child("speed").number_by([&](double v) { cruise_conditions(*airplane, v, 0.0); });
+    p.altitude = r.child("altitude").number_by([](double v) { standard_atmosphere(v); });
     if (auto c = r.optional_child("temperature_offset"))
-      p.temperature_offset = c->in_range(-60, 60, false, false);
+      p.temperature_offset = c->number_by([&](double v) { standard_atmosphere(p.altitude, v); });
     const CruiseConditions cc =
         cruise_conditions(*airplane, p.speed, p.altitude, p.temperature_offset);
     p.cl = cc.cl;
     p.reynolds = cc.reynolds;
     p.mach = cc.mach;
-    if (p.mach >= 0.7)
-      r.fail_at(r.path() + "/speed", "gives Mach " + number_text(p.mach) + ", must be < 0.7");
-    if (p.cl > 2.0)
-      r.fail_at(r.path() + "/speed", "gives a cruise cl of " + number_text(p.cl) +
-                                         ", above 2 (too slow for this airplane)");
+    check_flight_flow(r, r.path() + "/speed", p.reynolds, p.mach);
+    if (p.cl > kDesignClMax)
+      r.fail_at(r.path() + "/speed", "gives a cruise cl of " + number_text(p.cl) + ", above " +
+                                         number_text(kDesignClMax) +
+                                         " (too slow for this airplane)");
   } else {
-    p.cl = r.child("cl").in_range(-0.5, 2.0, false, false);
-    p.reynolds = r.child("reynolds").in_range(1e4, 1e9, false, false);
+    p.cl = r.child("cl").in_range(kDesignClMin, kDesignClMax, false, false);
+    p.reynolds = read_reynolds(r.child("reynolds"));
     p.mach = r.has("mach") ? read_mach(r.child("mach")) : 0.0;
   }
   r.finish();
@@ -195,21 +281,26 @@ LandingPoint read_landing(Reader r, const std::optional<Airplane>& airplane, dou
   if (stall) {
     if (!airplane)
       r.fail_at(r.path() + "/stall_speed", "a stall speed needs the airplane (missing /airplane)");
-    l.stall_speed = r.child("stall_speed").positive();
-    l.altitude =
-        r.has("altitude") ? r.child("altitude").in_range(0, kAtmosphereCeiling, false, false) : 0.0;
+    l.stall_speed = r.child("stall_speed").number_by([&](double v) {
+      stall_conditions(*airplane, v, 0.0, factor);
+    });
+    l.altitude = r.has("altitude")
+                     ? r.child("altitude").number_by([](double v) { standard_atmosphere(v); })
+                     : 0.0;
     double dt = 0;
-    if (auto c = r.optional_child("temperature_offset")) dt = c->in_range(-60, 60, false, false);
+    if (auto c = r.optional_child("temperature_offset"))
+      dt = c->number_by([&](double v) { standard_atmosphere(l.altitude, v); });
     const StallConditions sc = stall_conditions(*airplane, l.stall_speed, l.altitude, factor, dt);
     l.reynolds = sc.reynolds;
     l.mach = sc.mach;
+    check_flight_flow(r, r.path() + "/stall_speed", l.reynolds, l.mach);
     l.cl_max_required = sc.cl_max_required;
     if (l.cl_max_required > 2.4)
       r.fail_at(r.path() + "/stall_speed",
                 "needs a section cl_max of " + number_text(l.cl_max_required) +
                     ", beyond what a clean section reaches (about 2.4 at most: common practice)");
   } else {
-    l.reynolds = r.child("reynolds").in_range(1e4, 1e9, false, false);
+    l.reynolds = read_reynolds(r.child("reynolds"));
     l.mach = r.has("mach") ? read_mach(r.child("mach")) : 0.0;
   }
   r.finish();
@@ -353,52 +444,42 @@ Baseline read_baseline(Reader r, const std::filesystem::path& base_dir) {
   return b;
 }
 
+// The values as written (types checked here); their ranges are OptimizerOptions::Validate's.
 OptimizerOptions read_optimizer(Reader r) {
   OptimizerOptions o;
   if (auto c = r.optional_child("algorithm"))
     o.algorithm = algorithm_from_string(c->string(), c->where());
-  if (auto c = r.optional_child("max_evaluations")) {
-    o.max_evaluations = c->integer();
-    if (o.max_evaluations < 1)
-      c->fail("must be >= 1 (got " + std::to_string(o.max_evaluations) + ")");
-  }
-  if (auto c = r.optional_child("xtol_rel")) o.xtol_rel = c->in_range(0, 1, false, true);
-  if (auto c = r.optional_child("ftol_rel")) o.ftol_rel = c->in_range(0, 1, false, true);
-  if (auto c = r.optional_child("time_limit_s")) o.time_limit_s = c->positive();
+  if (auto c = r.optional_child("max_evaluations")) o.max_evaluations = c->integer();
+  if (auto c = r.optional_child("xtol_rel")) o.xtol_rel = c->number();
+  if (auto c = r.optional_child("ftol_rel")) o.ftol_rel = c->number();
+  if (auto c = r.optional_child("time_limit_s")) o.time_limit_s = c->number();
   if (auto c = r.optional_child("seed")) {
     const int s = c->integer();
-    if (s < 0) c->fail("must be >= 0");
+    if (s < 0) c->fail("must be a whole number >= 0 (got " + std::to_string(s) + ")");
     o.seed = unsigned(s);
   }
-  if (auto c = r.optional_child("starts")) {
-    o.starts = c->integer();
-    if (o.starts < 1 || o.starts > 100) c->fail("must be in 1..100");
-  }
-  if (auto c = r.optional_child("fd_step")) o.fd_step = c->in_range(1e-8, 1e-2, false, false);
-  if (auto c = r.optional_child("constraint_tol"))
-    o.constraint_tol = c->in_range(0, 0.1, false, false);
+  if (auto c = r.optional_child("starts")) o.starts = c->integer();
+  if (auto c = r.optional_child("fd_step")) o.fd_step = c->number();
+  if (auto c = r.optional_child("constraint_tol")) o.constraint_tol = c->number();
   r.finish();
+  r.validate_fields("optimizer", [&] { o.Validate(); });
   return o;
 }
 
+// The values as written (types checked here); their ranges are AnalysisOptions::Validate's.
 AnalysisOptions read_analysis(Reader r) {
   AnalysisOptions a;
   if (auto c = r.optional_child("panels")) a.panels = c->integer();
   if (auto c = r.optional_child("verify_panels")) a.verify_panels = c->integer();
-  if (auto c = r.optional_child("search_cl_max_margin"))
-    a.search_cl_max_margin = c->in_range(0, 0.2, false, false);
+  if (auto c = r.optional_child("search_cl_max_margin")) a.search_cl_max_margin = c->number();
   if (auto c = r.optional_child("polar_alpha")) {
-    a.polar_alpha_min = c->child("min").in_range(-30, 30, false, false);
-    a.polar_alpha_max = c->child("max").in_range(-30, 30, false, false);
-    if (c->has("step")) a.polar_alpha_step = c->child("step").in_range(0.05, 5, false, false);
+    a.polar_alpha_min = c->child("min").number();
+    a.polar_alpha_max = c->child("max").number();
+    if (c->has("step")) a.polar_alpha_step = c->child("step").number();
     c->finish();
   }
   r.finish();
-  try {
-    a.Validate();
-  } catch (const InputError& e) {
-    r.fail(e.what());
-  }
+  r.validate_fields("analysis", [&] { a.Validate(); });
   return a;
 }
 
@@ -418,16 +499,19 @@ OutputOptions read_outputs(Reader r) {
       const std::string name = f.string();
       try {
         cad::cad_format_from_string(name, f.path());
-      } catch (const InputError&) {
-        f.fail("must be one of dxf, iges, step, svg, csv (got \"" + name + "\")");
+      } catch (const InputError& e) {
+        f.fail(stated_rule(e.what()) + " (got \"" + name + "\")");
       }
       o.cad_formats.push_back(name);
     }
     if (o.cad_formats.empty()) formats.fail("must name at least one format");
     if (auto u = cad->optional_child("units")) {
       o.cad_units = u->string();
-      if (o.cad_units != "mm" && o.cad_units != "m" && o.cad_units != "in")
-        u->fail("must be mm, m or in (got \"" + o.cad_units + "\")");
+      try {
+        cad::length_unit_from_string(o.cad_units);
+      } catch (const InputError& e) {
+        u->fail(stated_rule(e.what()) + " (got \"" + o.cad_units + "\")");
+      }
     }
     if (auto ch = cad->optional_child("chord")) o.cad_chord = ch->positive();
     cad->finish();
@@ -436,37 +520,39 @@ OutputOptions read_outputs(Reader r) {
   return o;
 }
 
-size_t line_of_offset(const std::string& text, size_t offset) {
-  size_t line = 1;
-  for (size_t i = 0; i < offset && i < text.size(); ++i)
-    if (text[i] == '\n') ++line;
-  return line;
+// Every flow the run will analyse (each design point and the landing point, under each
+// transition scenario) as the viscous options of that analysis, checked by their Validate():
+// what --check accepts, the run accepts.
+void check_analysis_options(const Reader& r, const Case& c) {
+  auto check = [&](const std::string& path, double reynolds, double mach) {
+    for (std::size_t k = 0; k < c.scenarios.size(); ++k) {
+      const TransitionScenario& s = c.scenarios[k];
+      viscous::ViscousOptions o;
+      o.reynolds = reynolds;
+      o.mach = mach;
+      o.n_crit = s.ncrit;
+      o.trip_upper = s.trip_upper;
+      o.trip_lower = s.trip_lower;
+      try {
+        o.Validate();
+      } catch (const InputError& e) {
+        r.fail_at(path, "with transition scenario \"" + s.name + "\": " + e.what());
+      }
+    }
+  };
+  for (std::size_t i = 0; i < c.points.size(); ++i)
+    check("/design_points/" + std::to_string(i), c.points[i].reynolds, c.points[i].mach);
+  if (c.landing.present) check("/landing", c.landing.reynolds, c.landing.mach);
 }
 
 }  // namespace
 
 std::string to_string(Algorithm a) {
-  switch (a) {
-    case Algorithm::slsqp:
-      return "slsqp";
-    case Algorithm::mma:
-      return "mma";
-    case Algorithm::cobyla:
-      return "cobyla";
-    case Algorithm::isres:
-      return "isres";
-    case Algorithm::multistart:
-      return "multistart";
-  }
-  return "slsqp";
+  return kAlgorithms.name(a);
 }
 
 Algorithm algorithm_from_string(const std::string& name, const std::string& where) {
-  for (Algorithm a : {Algorithm::slsqp, Algorithm::mma, Algorithm::cobyla, Algorithm::isres,
-                      Algorithm::multistart})
-    if (to_string(a) == name) return a;
-  throw InputError(where + ": unknown algorithm \"" + name +
-                   "\" (one of slsqp, mma, cobyla, isres, multistart)");
+  return kAlgorithms.parse(name, where, "algorithm");
 }
 
 void OptimizerOptions::Validate() const {
@@ -479,8 +565,8 @@ void OptimizerOptions::Validate() const {
     throw InputError("optimizer.ftol_rel = " + number_text(ftol_rel) + ": must be in [0, 1)");
   if (!(time_limit_s > 0))
     throw InputError("optimizer.time_limit_s = " + number_text(time_limit_s) + ": must be > 0");
-  if (starts < 1)
-    throw InputError("optimizer.starts = " + std::to_string(starts) + ": must be >= 1");
+  if (starts < 1 || starts > 100)
+    throw InputError("optimizer.starts = " + std::to_string(starts) + ": must be in 1..100");
   if (!(fd_step >= 1e-8 && fd_step <= 1e-2))
     throw InputError("optimizer.fd_step = " + number_text(fd_step) + ": must be in [1e-8, 1e-2]");
   if (!(constraint_tol >= 0 && constraint_tol <= 0.1))
@@ -496,6 +582,19 @@ void AnalysisOptions::Validate() const {
   if (verify_panels < panels || verify_panels > 800)
     throw InputError("analysis.verify_panels = " + std::to_string(verify_panels) +
                      ": must be >= panels (" + std::to_string(panels) + ") and <= 800");
+  if (!(search_cl_max_margin >= 0 && search_cl_max_margin <= 0.2))
+    throw InputError("analysis.search_cl_max_margin = " + number_text(search_cl_max_margin) +
+                     ": must be in [0, 0.2]");
+  // The polars of the report: beyond +-30 deg a section is far past its stall.
+  if (!(polar_alpha_min >= -30 && polar_alpha_min <= 30))
+    throw InputError("analysis.polar_alpha.min = " + number_text(polar_alpha_min) +
+                     ": must be in [-30, 30] deg");
+  if (!(polar_alpha_max >= -30 && polar_alpha_max <= 30))
+    throw InputError("analysis.polar_alpha.max = " + number_text(polar_alpha_max) +
+                     ": must be in [-30, 30] deg");
+  if (!(polar_alpha_step >= 0.05 && polar_alpha_step <= 5))
+    throw InputError("analysis.polar_alpha.step = " + number_text(polar_alpha_step) +
+                     ": must be in [0.05, 5] deg");
   if (!(polar_alpha_max > polar_alpha_min))
     throw InputError("analysis.polar_alpha.max = " + number_text(polar_alpha_max) +
                      ": must be > min " + number_text(polar_alpha_min));
@@ -506,13 +605,7 @@ void AnalysisOptions::Validate() const {
 
 Case parse_case(const std::string& text, const std::string& label,
                 const std::filesystem::path& base_dir) {
-  json root;
-  try {
-    root = json::parse(text);
-  } catch (const json::parse_error& e) {
-    throw InputError(label + ": line " + std::to_string(line_of_offset(text, e.byte)) +
-                     ": not valid JSON (" + e.what() + ")");
-  }
+  const json root = parse_json_text(text, label);
   Case c;
   c.source = root;
   Reader r(root, "", &label);
@@ -535,11 +628,7 @@ Case parse_case(const std::string& text, const std::string& label,
 
   TransitionScenario nominal;
   if (auto t = r.optional_child("transition")) {
-    if (auto n = t->optional_child("ncrit")) nominal.ncrit = n->in_range(0, 20, true, false);
-    if (auto u = t->optional_child("trip_upper"))
-      nominal.trip_upper = u->in_range(0, 1, true, false);
-    if (auto l = t->optional_child("trip_lower"))
-      nominal.trip_lower = l->in_range(0, 1, true, false);
+    read_transition_values(*t, nominal);
     nominal.name = "nominal";
     if (auto s = t->optional_child("scenarios")) {
       const auto items = s->array();
@@ -559,6 +648,7 @@ Case parse_case(const std::string& text, const std::string& label,
       c.points.push_back(read_point(items[i], c.airplane, i));
   }
   if (auto l = r.optional_child("landing")) c.landing = read_landing(*l, c.airplane, factor);
+  check_analysis_options(r, c);
 
   {
     std::vector<DesignPoint> points;

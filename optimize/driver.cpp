@@ -4,14 +4,17 @@
 #include <chrono>
 #include <cmath>
 #include <cstdio>
+#include <exception>
 #include <fstream>
 #include <limits>
 #include <map>
+#include <mutex>
 #include <nlopt.hpp>
 #include <ostream>
 #include <random>
 #include <sstream>
 #include <thread>
+#include <utility>
 
 #include "common/atomic_file.h"
 #include "common/error.h"
@@ -23,7 +26,27 @@ using nlohmann::json;
 using Clock = std::chrono::steady_clock;
 
 constexpr const char* kCheckpointFormat = "fulmar-checkpoint";
-constexpr int kCheckpointVersion = 1;
+// Version 2 added the constraints' ids to the records (and a full record for every evaluation);
+// version 1 is still read: upgrade_v1_detail completes its records.
+constexpr int kCheckpointVersion = 2;
+
+// A version-1 record made whole: a null one (an analysis that threw) becomes an empty record,
+// a design point without results (no analysis ran) one that did not converge, and each
+// constraint row gets its id from the problem (same case, the fingerprint guarantees it, so the
+// same constraints in the same order).
+json upgrade_v1_detail(json d, const std::vector<std::string>& ids) {
+  if (d.is_null()) return to_json(EvaluationRecord{});
+  PointResult none;
+  none.reason = "not analysed";
+  const json not_analysed = to_json(none);
+  if (d.contains("points"))
+    for (auto& p : d["points"])
+      if (p.is_object() && !p.contains("converged")) p.update(not_analysed);
+  if (d.contains("constraints") && d["constraints"].is_array())
+    for (size_t k = 0; k < d["constraints"].size(); ++k)
+      if (!d["constraints"][k].contains("id") && k < ids.size()) d["constraints"][k]["id"] = ids[k];
+  return d;
+}
 
 // Thrown inside the NLopt callbacks to end the search (NLopt turns it into a forced stop).
 struct StopSearch {};
@@ -49,13 +72,24 @@ void parallel_for(int n, int threads, F&& f) {
     for (int i = 0; i < n; ++i) f(i);
     return;
   }
+  // An exception of a worker (an input or program error of the analysis) ends the other workers
+  // after their current item and is thrown again here, in the calling thread.
   std::atomic<int> next{0};
+  std::exception_ptr first_error;
+  std::mutex error_mutex;
   std::vector<std::thread> pool;
   for (int t = 0; t < threads; ++t)
     pool.emplace_back([&] {
-      for (int i = next++; i < n; i = next++) f(i);
+      try {
+        for (int i = next++; i < n; i = next++) f(i);
+      } catch (...) {  // carried to the calling thread, not swallowed
+        const std::lock_guard<std::mutex> lock(error_mutex);
+        if (!first_error) first_error = std::current_exception();
+        next = n;
+      }
     });
   for (auto& th : pool) th.join();
+  if (first_error) std::rethrow_exception(first_error);
 }
 
 class Search {
@@ -150,13 +184,15 @@ class Search {
   }
 
   Evaluation safe_evaluate(const std::vector<double>& x) const {
+    // A numerical failure is a status of the evaluation (AnalysisFailure, or ok = false from the
+    // evaluator); anything else thrown (InputError, a program error) ends the search.
     Evaluation e;
     try {
       e = p_.evaluate(x);
-    } catch (const std::exception& ex) {
+    } catch (const AnalysisFailure& ex) {
       e = Evaluation{};
       e.ok = false;
-      e.status = std::string("analysis threw: ") + ex.what();
+      e.status = std::string("analysis failed: ") + ex.what();
       e.objective = std::numeric_limits<double>::quiet_NaN();
     }
     e.x = x;
@@ -318,9 +354,23 @@ class Search {
     return design_.data();
   }
 
+  // NLopt turns an exception thrown in a callback into a bare "nlopt failure"; so an error of the
+  // analysis is kept here, NLopt is stopped, and run_local throws it again.
+  template <class F>
+  void guarded(F&& f) {
+    try {
+      f();
+    } catch (const nlopt::forced_stop&) {
+      throw;
+    } catch (...) {  // carried past NLopt and thrown again by run_local, not swallowed
+      pending_error_ = std::current_exception();
+      throw nlopt::forced_stop();
+    }
+  }
   static double objective_cb(unsigned n, const double* z, double* grad, void* data) {
     Search* s = static_cast<Search*>(data);
-    const double f = s->objective(n, s->design_of(n, z), grad);
+    double f = 0;
+    s->guarded([&] { f = s->objective(n, s->design_of(n, z), grad); });
     if (grad && s->scaled_)
       for (unsigned i = 0; i < n; ++i) grad[i] *= kGradientScale;
     return f;
@@ -328,7 +378,7 @@ class Search {
   static void constraints_cb(unsigned m, double* result, unsigned n, const double* z, double* grad,
                              void* data) {
     Search* s = static_cast<Search*>(data);
-    s->constraints(m, result, n, s->design_of(n, z), grad);
+    s->guarded([&] { s->constraints(m, result, n, s->design_of(n, z), grad); });
     if (grad && s->scaled_)
       for (unsigned k = 0; k < m * n; ++k) grad[k] *= kGradientScale;
   }
@@ -395,6 +445,7 @@ class Search {
           return false;
       }
     } catch (const nlopt::forced_stop&) {
+      if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (share_spent_ && stop_reason_.empty()) {
         share_spent_ = false;
         reason = "its share of the evaluation budget spent";
@@ -405,7 +456,12 @@ class Search {
     } catch (const nlopt::roundoff_limited&) {
       reason = "NLopt stopped: roundoff limited (no further progress possible)";
       return false;
-    } catch (const std::exception& ex) {
+    } catch (const std::invalid_argument& ex) {  // NLopt's NLOPT_INVALID_ARGS
+      if (!stop_reason_.empty()) throw StopSearch{};
+      reason = std::string("NLopt stopped: ") + ex.what();
+      return false;
+    } catch (const std::runtime_error& ex) {  // NLopt's NLOPT_FAILURE (callbacks' errors: above)
+      if (pending_error_) std::rethrow_exception(std::exchange(pending_error_, nullptr));
       if (!stop_reason_.empty()) throw StopSearch{};
       reason = std::string("NLopt stopped: ") + ex.what();
       return false;
@@ -480,7 +536,8 @@ class Search {
     json j;
     try {
       j = json::parse(in);
-      if (j.at("format") != kCheckpointFormat || j.at("version") != kCheckpointVersion)
+      const bool v1 = j.at("version") == 1;
+      if (j.at("format") != kCheckpointFormat || (j.at("version") != kCheckpointVersion && !v1))
         throw InputError(s_.checkpoint.string() + ": not a fulmar checkpoint of version " +
                          std::to_string(kCheckpointVersion));
       if (j.at("fingerprint").get<std::string>() != s_.fingerprint)
@@ -488,8 +545,13 @@ class Search {
                          ": the checkpoint belongs to another case (or the case file changed); "
                          "run without --resume to start afresh");
       prior_elapsed_ = j.at("elapsed_s").get<double>();
-      for (const auto& e : j.at("evaluations")) {
-        Evaluation ev = evaluation_from_json(e);
+      const json& evals = j.at("evaluations");
+      for (size_t i = 0; i < evals.size(); ++i) {
+        json e = evals[i];
+        if (v1 && e.is_object() && e.contains("detail"))
+          e["detail"] = upgrade_v1_detail(e["detail"], p_.constraint_ids);
+        Evaluation ev =
+            evaluation_from_json(e, s_.checkpoint.string() + ": /evaluations/" + std::to_string(i));
         replay_[ev.x] = std::move(ev);
       }
     } catch (const json::exception& e) {
@@ -520,23 +582,25 @@ class Search {
   int replayed_ = 0;
   std::string stop_reason_;
   bool interrupted_ = false;
+  std::exception_ptr pending_error_;  // see guarded()
 };
 
 }  // namespace
 
 json to_json(const Evaluation& e) {
   return json{{"x", e.x},   {"objective", e.objective}, {"constraints", e.constraints},
-              {"ok", e.ok}, {"status", e.status},       {"detail", e.detail}};
+              {"ok", e.ok}, {"status", e.status},       {"detail", to_json(e.detail)}};
 }
 
-Evaluation evaluation_from_json(const json& j) {
+Evaluation evaluation_from_json(const json& j, const std::string& where) {
+  using namespace json_read;
   Evaluation e;
-  e.x = j.at("x").get<std::vector<double>>();
-  e.objective = j.at("objective").get<double>();
-  e.constraints = j.at("constraints").get<std::vector<double>>();
-  e.ok = j.at("ok").get<bool>();
-  e.status = j.at("status").get<std::string>();
-  e.detail = j.at("detail");
+  e.x = member(j, "x", where).get<std::vector<double>>();
+  e.objective = number(j, "objective", where);
+  e.constraints = member(j, "constraints", where).get<std::vector<double>>();
+  e.ok = boolean(j, "ok", where);
+  e.status = text(j, "status", where);
+  e.detail = evaluation_record_from_json(member(j, "detail", where), where + "/detail");
   return e;
 }
 

@@ -9,12 +9,14 @@
 #include <filesystem>
 #include <functional>
 #include <iosfwd>
+#include <stdexcept>
 #include <string>
 #include <vector>
 
 #include <nlohmann/json.hpp>
 
-#include "optimize/case_file.h"
+#include "optimize/evaluation_record.h"
+#include "optimize/search_options.h"
 
 namespace fulmar::optimize {
 
@@ -25,11 +27,20 @@ struct Evaluation {
   double objective = 0;
   std::vector<double> constraints;  // scaled; <= 0 is met
   bool ok = false;
-  std::string status;     // "ok" or what failed
-  nlohmann::json detail;  // per-point results etc., kept for history and summary
+  std::string status;       // "ok" or what failed
+  EvaluationRecord detail;  // per-point results etc., kept for history and summary
 };
 nlohmann::json to_json(const Evaluation& e);
-Evaluation evaluation_from_json(const nlohmann::json& j);
+// Throws InputError naming `where` and the key for a missing or mistyped key.
+Evaluation evaluation_from_json(const nlohmann::json& j, const std::string& where);
+
+// Thrown by an evaluate function for a numerical failure of one design's analysis (the solver
+// broke down on it): the search records it as a failed evaluation (ok = false, the message in
+// the status) and goes on. Anything else an evaluate function throws (InputError, a program error)
+// ends the search and propagates out of run_search.
+struct AnalysisFailure : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
 
 // The largest scaled constraint value (<= 0: all met); -inf when there are none.
 double worst_constraint(const Evaluation& e);
@@ -42,6 +53,9 @@ struct SearchProblem {
   // takes what is left), in this order.
   std::vector<std::vector<double>> extra_starts;
   std::vector<std::string> constraint_names;
+  // Stable ids of the constraints (EvaluationRecord's ConstraintRecord::id), in the same order;
+  // they complete the records of a version-1 checkpoint, which had none. May be empty.
+  std::vector<std::string> constraint_ids;
   // Must be thread-safe and deterministic (depends on x only).
   std::function<Evaluation(const std::vector<double>& x)> evaluate;
 };
@@ -69,7 +83,8 @@ struct SearchSettings {
 };
 
 // Runs the search. Throws InputError when resuming from a missing checkpoint or one of another
-// case; everything else (failed analyses, limits, signals) ends in the result.
+// case, and passes on what an evaluate function throws other than AnalysisFailure; everything
+// else (failed analyses, limits, signals) ends in the result.
 SearchResult run_search(const SearchProblem& problem, const SearchSettings& settings);
 
 // Index of the best feasible evaluation (lowest objective, earliest on ties), -1 when none.

@@ -219,13 +219,13 @@ TEST(Driver, FailedAnalysesAreLoggedAndAvoided) {
   RecordProperty("failed_analyses", failed);
 }
 
-TEST(Driver, AThrowingAnalysisIsAFailureNotACrash) {
+TEST(Driver, ANumericalFailureIsAFailedEvaluationNotACrash) {
   Quadratic q;
   SearchProblem p = q.problem();
   auto inner = p.evaluate;
   auto calls = std::make_shared<std::atomic<int>>(0);
   p.evaluate = [inner, calls](const std::vector<double>& x) -> Evaluation {
-    if (++*calls == 5) throw std::runtime_error("solver blew up");
+    if (++*calls == 5) throw AnalysisFailure("solver blew up");
     return inner(x);
   };
   // The fifth analysis (one of the second iteration's designs) throws.
@@ -236,6 +236,24 @@ TEST(Driver, AThrowingAnalysisIsAFailureNotACrash) {
   EXPECT_GT(thrown, 0);
   ASSERT_GE(r.best, 0);
   EXPECT_NEAR(r.history[r.best].objective, 0.5, 1e-3);
+}
+
+// An input error inside an analysis is not a bad design: it ends the search and reaches the
+// caller, from the first (serial) analysis and from the parallel finite-difference points alike.
+TEST(Driver, AnInputErrorInAnAnalysisPropagates) {
+  for (int when : {1, 5}) {
+    Quadratic q;
+    SearchProblem p = q.problem();
+    auto inner = p.evaluate;
+    auto calls = std::make_shared<std::atomic<int>>(0);
+    p.evaluate = [inner, calls, when](const std::vector<double>& x) -> Evaluation {
+      if (++*calls == when) throw InputError("case.json: /constraints: broken");
+      return inner(x);
+    };
+    SearchSettings s = settings(Algorithm::slsqp);
+    s.threads = 2;
+    EXPECT_THROW(run_search(p, s), InputError) << "at analysis " << when;
+  }
 }
 
 TEST(Driver, BudgetStopsTheSearch) {
@@ -280,6 +298,76 @@ TEST_P(EachAlgorithm, ResumeAfterAnInterruptionGivesTheSameOptimum) {
   EXPECT_EQ(resumed.best, reference.best);
   EXPECT_EQ(resumed.history[resumed.best].x, reference.history[reference.best].x);
   EXPECT_EQ(resumed.history[resumed.best].objective, reference.history[reference.best].objective);
+  fs::remove_all(dir);
+}
+
+// A checkpoint of version 1 (records without constraint ids, without results for designs that
+// were not analysed, or null for an analysis that threw) still resumes: its records are completed
+// from the problem's constraint ids. A record of the current version with a key missing is an
+// error naming the key, never read with a default.
+TEST(Driver, ResumesAVersion1CheckpointAndRefusesAMissingKey) {
+  const fs::path dir = scratch("v1");
+  std::atomic<bool> stop{false};
+  Quadratic first;
+  first.stop = &stop;
+  first.stop_after = 12;
+  SearchProblem p1 = first.problem();
+  p1.constraint_ids = {"sum"};
+  SearchSettings s = settings(Algorithm::slsqp);
+  s.checkpoint = dir / "checkpoint.json";
+  s.stop = &stop;
+  const SearchResult interrupted = run_search(p1, s);
+  ASSERT_GT(interrupted.history.size(), 2u);
+  nlohmann::json j;
+  {
+    std::ifstream in(s.checkpoint);
+    j = nlohmann::json::parse(in);
+  }
+  EXPECT_EQ(j.at("version"), 2);
+  nlohmann::json v1 = j;
+  v1["version"] = 1;
+  for (auto& e : v1["evaluations"]) {
+    e["detail"]["constraints"] = nlohmann::json::array({{{"name", "sum <= 0"},
+                                                         {"value", 0.0},
+                                                         {"limit", 0.0},
+                                                         {"kind", "max"},
+                                                         {"satisfied", true}}});
+    e["detail"]["points"] = nlohmann::json::array({{{"point", "a"},
+                                                    {"scenario", "free"},
+                                                    {"cl_target", 0.3},
+                                                    {"reynolds", 1e6},
+                                                    {"mach", 0}}});
+  }
+  v1["evaluations"][0]["detail"] = nullptr;
+  std::ofstream(s.checkpoint) << v1.dump();
+
+  Quadratic second;
+  SearchProblem p2 = second.problem();
+  p2.constraint_ids = {"sum"};
+  SearchSettings s2 = settings(Algorithm::slsqp);
+  s2.checkpoint = s.checkpoint;
+  s2.resume = true;
+  const SearchResult resumed = run_search(p2, s2);
+  EXPECT_EQ(resumed.replayed, int(interrupted.history.size()));
+  EXPECT_TRUE(resumed.history[0].detail.points.empty());
+  ASSERT_EQ(resumed.history[1].detail.constraints.size(), 1u);
+  EXPECT_EQ(resumed.history[1].detail.constraints[0].id, "sum");
+  ASSERT_EQ(resumed.history[1].detail.points.size(), 1u);
+  EXPECT_FALSE(resumed.history[1].detail.points[0].result.converged);
+  EXPECT_EQ(resumed.history[1].detail.points[0].result.reason, "not analysed");
+
+  nlohmann::json damaged = j;
+  damaged["evaluations"][3]["detail"].erase("panels");
+  std::ofstream(s.checkpoint) << damaged.dump();
+  Quadratic third;
+  try {
+    run_search(third.problem(), s2);
+    FAIL() << "expected InputError";
+  } catch (const InputError& e) {
+    EXPECT_NE(std::string(e.what()).find("/evaluations/3/detail/panels: missing"),
+              std::string::npos)
+        << e.what();
+  }
   fs::remove_all(dir);
 }
 

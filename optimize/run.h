@@ -12,6 +12,7 @@
 
 #include "geometry/cst.h"
 #include "optimize/case_file.h"
+#include "optimize/run_verify.h"
 #include "optimize/section_evaluator.h"
 
 namespace fulmar::optimize {
@@ -39,8 +40,6 @@ struct RunOutcome {
 // Names of the files written into the output directory.
 inline constexpr const char* kCheckpointFile = "checkpoint.json";
 inline constexpr const char* kSummaryFile = "summary.json";
-// Search-feasible designs re-verified, best first, until one verifies feasible.
-inline constexpr std::size_t kVerifyCandidates = 5;
 
 // Checks that `dir` can hold the results (exists and is writable, or can be created: its parent
 // exists and is writable) without creating anything. Throws InputError naming the directory.

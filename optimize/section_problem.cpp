@@ -20,134 +20,17 @@ std::string text(double v) {
   return buf;
 }
 
-// Bernstein sum sum_i a_i B_{i,n}(x) by de Casteljau (stable for all orders used here).
-double bernstein_sum(const Eigen::VectorXd& a, double x) {
-  std::vector<double> b(a.data(), a.data() + a.size());
-  for (size_t r = 1; r < b.size(); ++r)
-    for (size_t i = 0; i + r < b.size(); ++i) b[i] = (1 - x) * b[i] + x * b[i + 1];
-  return b.empty() ? 0.0 : b[0];
-}
-
-// Maximum of f over [0, 1]: a dense cosine-spaced scan, then golden-section refinement around the
-// best sample, so the result moves smoothly with the shape (no jumps from sample to sample).
-template <class F>
-std::pair<double, double> maximum_of(F&& f) {
-  constexpr int n = 240;
-  int best = 0;
-  double best_v = -1e300;
-  std::vector<double> xs(n + 1);
-  for (int i = 0; i <= n; ++i) {
-    xs[i] = 0.5 * (1 - std::cos(std::numbers::pi * i / n));
-    const double v = f(xs[i]);
-    if (v > best_v) best_v = v, best = i;
-  }
-  double a = xs[std::max(0, best - 1)], b = xs[std::min(n, best + 1)];
-  const double g = (std::sqrt(5.0) - 1) / 2;
-  double c = b - g * (b - a), d = a + g * (b - a);
-  double fc = f(c), fd = f(d);
-  for (int it = 0; it < 60 && b - a > 1e-12; ++it) {
-    if (fc > fd) {
-      b = d, d = c, fd = fc, c = b - g * (b - a), fc = f(c);
-    } else {
-      a = c, c = d, fc = fd, d = a + g * (b - a), fd = f(d);
-    }
-  }
-  const double x = 0.5 * (a + b);
-  const double v = f(x);
-  return v >= best_v ? std::make_pair(x, v) : std::make_pair(xs[best], best_v);
-}
-
 std::string scenario_label(const DesignPoint& p, const TransitionScenario& s, size_t scenarios) {
   return scenarios > 1 ? p.name + "/" + s.name : p.name;
 }
 
-// See GeometryMeasures::excess_reversal_*. y'' by central differences of the analytic surface on
-// x in [0.03, 0.97] (the nose's sqrt singularity and the trailing-edge closure excluded).
-double excess_reversal(const CstShape& s, Surface surface, int allowed) {
-  constexpr int n = 160;
-  constexpr double h = 1e-4;
-  std::vector<std::pair<int, double>> runs;  // sign, peak |y''|
-  for (int i = 0; i <= n; ++i) {
-    const double x = 0.03 + 0.94 * i / n;
-    const double d2 =
-        (cst_y(s, surface, x + h) - 2 * cst_y(s, surface, x) + cst_y(s, surface, x - h)) / (h * h);
-    const int sign = d2 > 0 ? 1 : (d2 < 0 ? -1 : 0);
-    if (sign == 0) continue;
-    if (runs.empty() || runs.back().first != sign) runs.push_back({sign, 0.0});
-    runs.back().second = std::max(runs.back().second, std::abs(d2));
-  }
-  std::vector<double> strengths;
-  for (size_t j = 0; j + 1 < runs.size(); ++j)
-    strengths.push_back(std::min(runs[j].second, runs[j + 1].second));
-  std::sort(strengths.rbegin(), strengths.rend());
-  return size_t(allowed) < strengths.size() ? strengths[size_t(allowed)] : 0.0;
-}
-
 }  // namespace
 
-double cst_thickness_at(const CstShape& shape, double x) {
-  return cst_upper_y(shape, x) - cst_lower_y(shape, x);
-}
-
-GeometryMeasures measure_geometry(const CstShape& s, const std::vector<SparLimit>& spars,
+GeometryMeasures measure_geometry(const CstShape& shape, const std::vector<SparLimit>& spars,
                                   int allowed_upper, int allowed_lower) {
-  GeometryMeasures g;
-  auto [tx, t] = maximum_of([&](double x) { return cst_thickness_at(s, x); });
-  g.thickness = t, g.thickness_x = tx;
-  auto camber = [&](double x) { return 0.5 * (cst_upper_y(s, x) + cst_lower_y(s, x)); };
-  auto [cxp, cp] = maximum_of(camber);
-  auto [cxn, cn] = maximum_of([&](double x) { return -camber(x); });
-  if (cp >= cn)
-    g.camber = cp, g.camber_x = cxp;
-  else
-    g.camber = -cn, g.camber_x = cxn;
-  for (const auto& sp : spars) g.spar_thickness.push_back(cst_thickness_at(s, sp.x));
-  g.te_gap = s.te_upper - s.te_lower;
-  // dy/dx at x = 1: C'(1) = -1 and C(1) = 0, so y' = -a_n + y_te on each surface.
-  const double slope_u = -s.upper[s.upper.size() - 1] + s.te_upper;
-  const double slope_l = -s.lower[s.lower.size() - 1] + s.te_lower;
-  g.te_angle_deg = (std::atan(slope_l) - std::atan(slope_u)) * 180 / std::numbers::pi;
-  // Nose radius of a CST surface with class exponent 0.5: r = a_0^2 / 2 (Kulfan 2008).
-  g.le_radius = 0.5 * std::min(s.upper[0] * s.upper[0], s.lower[0] * s.lower[0]);
-  // Area by the trapezoidal rule in theta, x = (1 - cos theta)/2: the sqrt(x) nose becomes smooth.
-  constexpr int n = 400;
-  double area = 0;
-  for (int i = 0; i <= n; ++i) {
-    const double th = std::numbers::pi * i / n;
-    const double x = 0.5 * (1 - std::cos(th));
-    const double w = (i == 0 || i == n) ? 0.5 : 1.0;
-    area += w * cst_thickness_at(s, x) * 0.5 * std::sin(th);
-  }
-  g.area = area * std::numbers::pi / n;
-  double gap = 1e300;
-  for (int i = 0; i <= 200; ++i) {
-    const double x = 0.5 * (1 - std::cos(std::numbers::pi * i / 200));
-    gap = std::min(gap, bernstein_sum(s.upper, x) - bernstein_sum(s.lower, x));
-  }
-  g.min_shape_gap = gap;
-  const CurvatureReversals rev = curvature_reversals(cst_section(s, 161, "design"));
-  g.reversals_upper = rev.upper;
-  g.reversals_lower = rev.lower;
-  g.excess_reversal_upper = excess_reversal(s, Surface::kUpper, allowed_upper);
-  g.excess_reversal_lower = excess_reversal(s, Surface::kLower, allowed_lower);
-  return g;
-}
-
-json to_json(const GeometryMeasures& g) {
-  return json{{"thickness", g.thickness},
-              {"thickness_x", g.thickness_x},
-              {"camber", g.camber},
-              {"camber_x", g.camber_x},
-              {"spar_thickness", g.spar_thickness},
-              {"te_gap", g.te_gap},
-              {"te_angle_deg", g.te_angle_deg},
-              {"le_radius", g.le_radius},
-              {"area", g.area},
-              {"min_shape_gap", g.min_shape_gap},
-              {"curvature_reversals_upper", g.reversals_upper},
-              {"curvature_reversals_lower", g.reversals_lower},
-              {"excess_reversal_upper", g.excess_reversal_upper},
-              {"excess_reversal_lower", g.excess_reversal_lower}};
+  std::vector<double> stations;
+  for (const auto& sp : spars) stations.push_back(sp.x);
+  return measure_cst(shape, stations, allowed_upper, allowed_lower);
 }
 
 BaselineShape resolve_baseline(const Case& c) {
@@ -235,37 +118,44 @@ SectionProblem::SectionProblem(const Case& c, const SectionEvaluator& evaluator,
     : case_(c), evaluator_(evaluator), space_(std::move(space)) {
   const Constraints& k = c.constraints;
   // Scales put one unit of scaled violation at a change a designer would call large.
-  limits_.push_back({"thickness positive everywhere", true, 0.01, 0.1});
-  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_upper) +
+  limits_.push_back({"thickness_positive", "thickness positive everywhere", true, 0.01, 0.1});
+  limits_.push_back({"reversal_upper",
+                     "curvature reversal beyond " + std::to_string(k.max_reversals_upper) +
                          " on the upper surface (strength, 1/c)",
                      false, kFlatCurvature, 0.5});
-  limits_.push_back({"curvature reversal beyond " + std::to_string(k.max_reversals_lower) +
+  limits_.push_back({"reversal_lower",
+                     "curvature reversal beyond " + std::to_string(k.max_reversals_lower) +
                          " on the lower surface (strength, 1/c)",
                      false, kFlatCurvature, 0.5});
   if (!std::isnan(k.thickness_min))
-    limits_.push_back({"t/c", true, k.thickness_min, k.thickness_min});
-  for (const auto& s : k.spars) limits_.push_back({"t/c at x = " + text(s.x), true, s.min, s.min});
+    limits_.push_back({"thickness_min", "t/c", true, k.thickness_min, k.thickness_min});
+  for (const auto& s : k.spars)
+    limits_.push_back({"spar_" + text(s.x), "t/c at x = " + text(s.x), true, s.min, s.min});
   if (!std::isnan(k.te_gap_min))
-    limits_.push_back({"trailing-edge gap", true, k.te_gap_min, 0.005});
+    limits_.push_back({"te_gap_min", "trailing-edge gap", true, k.te_gap_min, 0.005});
   if (!std::isnan(k.te_gap_max))
-    limits_.push_back({"trailing-edge gap", false, k.te_gap_max, 0.005});
+    limits_.push_back({"te_gap_max", "trailing-edge gap", false, k.te_gap_max, 0.005});
   if (!std::isnan(k.te_angle_min_deg))
-    limits_.push_back({"trailing-edge wedge angle (deg)", true, k.te_angle_min_deg,
+    limits_.push_back({"te_angle_min", "trailing-edge wedge angle (deg)", true, k.te_angle_min_deg,
                        std::max(1.0, k.te_angle_min_deg)});
   if (!std::isnan(k.le_radius_min))
-    limits_.push_back({"leading-edge radius", true, k.le_radius_min, k.le_radius_min});
-  if (!std::isnan(k.area_min)) limits_.push_back({"area", true, k.area_min, k.area_min});
+    limits_.push_back(
+        {"le_radius_min", "leading-edge radius", true, k.le_radius_min, k.le_radius_min});
+  if (!std::isnan(k.area_min))
+    limits_.push_back({"area_min", "area", true, k.area_min, k.area_min});
   if (!std::isnan(k.thickness_x_min))
-    limits_.push_back({"x of maximum t/c", true, k.thickness_x_min, 0.1});
+    limits_.push_back({"thickness_x_min", "x of maximum t/c", true, k.thickness_x_min, 0.1});
   if (!std::isnan(k.thickness_x_max))
-    limits_.push_back({"x of maximum t/c", false, k.thickness_x_max, 0.1});
+    limits_.push_back({"thickness_x_max", "x of maximum t/c", false, k.thickness_x_max, 0.1});
   if (!std::isnan(k.cl_max_min))
-    limits_.push_back({kClMaxConstraint, true, k.cl_max_min, k.cl_max_min});
+    limits_.push_back({kClMaxId, kClMaxConstraint, true, k.cl_max_min, k.cl_max_min});
   for (const auto& p : c.points)
     if (!std::isnan(p.cm_min))
       for (const auto& s : c.scenarios)
-        limits_.push_back(
-            {"cm at " + scenario_label(p, s, c.scenarios.size()), true, p.cm_min, 0.05});
+        limits_.push_back({"cm_" + scenario_label(p, s, c.scenarios.size()),
+                           "cm at " + scenario_label(p, s, c.scenarios.size()), true, p.cm_min,
+                           0.05});
+  for (const auto& l : limits_) ids_.push_back(l.id);
   for (const auto& l : limits_)
     names_.push_back(l.name + (l.is_min ? " >= " : " <= ") + text(l.limit));
 }
@@ -295,8 +185,7 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
   if (!std::isnan(k.thickness_x_min)) values.push_back(g.thickness_x);
   if (!std::isnan(k.thickness_x_max)) values.push_back(g.thickness_x);
 
-  e.detail["geometry"] = to_json(g);
-  json points = json::array();
+  e.detail.geometry = g;
   e.ok = true;
   e.status = "ok";
   double objective = kFailedObjective;
@@ -361,35 +250,40 @@ Evaluation SectionProblem::evaluate(const std::vector<double>& x, int panels) co
     size_t i = 0;
     for (const auto& p : c.points)
       for (const auto& s : c.scenarios) {
-        json pj = i < results.size() ? to_json(results[i]) : json::object();
-        pj["point"] = p.name;
-        pj["scenario"] = s.name;
-        pj["cl_target"] = p.cl;
-        pj["reynolds"] = p.reynolds;
-        pj["mach"] = p.mach;
-        points.push_back(pj);
+        DesignPointRecord pr;
+        if (i < results.size()) {
+          pr.result = results[i];
+        } else {
+          pr.result.reason = "not analysed";
+        }
+        pr.point = p.name;
+        pr.scenario = s.name;
+        pr.cl_target = p.cl;
+        pr.reynolds = p.reynolds;
+        pr.mach = p.mach;
+        e.detail.points.push_back(std::move(pr));
         ++i;
       }
   }
-  e.detail["points"] = points;
-  e.detail["cl_max"] = to_json(clmax);
-  e.detail["panels"] = panels;
+  e.detail.cl_max = clmax;
+  e.detail.panels = panels;
   e.objective = objective;
 
-  json table = json::array();
   for (size_t i = 0; i < limits_.size(); ++i) {
     const Limit& l = limits_[i];
     const double v = values[i];
     double scaled = 1.0;  // an unknown value (failed analysis) counts as violated
     if (std::isfinite(v)) scaled = (l.is_min ? l.limit - v : v - l.limit) / l.scale;
     e.constraints.push_back(scaled);
-    table.push_back({{"name", l.name},
-                     {"value", std::isfinite(v) ? json(v) : json(nullptr)},
-                     {"limit", l.limit},
-                     {"kind", l.is_min ? "min" : "max"},
-                     {"satisfied", std::isfinite(v) && scaled <= c.optimizer.constraint_tol}});
+    ConstraintRecord row;
+    row.id = l.id;
+    row.name = l.name;
+    row.value = std::isfinite(v) ? v : std::numeric_limits<double>::quiet_NaN();
+    row.limit = l.limit;
+    row.is_min = l.is_min;
+    row.satisfied = std::isfinite(v) && scaled <= c.optimizer.constraint_tol;
+    e.detail.constraints.push_back(std::move(row));
   }
-  e.detail["constraints"] = table;
   return e;
 }
 
@@ -399,13 +293,14 @@ SearchProblem SectionProblem::search_problem() const {
   p.upper = space_.upper;
   p.start = space_.start;
   p.constraint_names = names_;
+  p.constraint_ids = ids_;
   const int panels = case_.analysis.panels;
   // The cl_max margin of the search (AnalysisOptions::search_cl_max_margin) on the scaled value;
   // the detail's table keeps the limit itself.
   int cl_max_index = -1;
   double shift = 0.0;
   for (size_t i = 0; i < limits_.size(); ++i)
-    if (limits_[i].name == kClMaxConstraint) {
+    if (limits_[i].id == kClMaxId) {
       cl_max_index = static_cast<int>(i);
       shift = case_.analysis.search_cl_max_margin / limits_[i].scale;
     }
@@ -418,8 +313,8 @@ SearchProblem SectionProblem::search_problem() const {
   return p;
 }
 
-json SectionProblem::constraint_table(const Evaluation& e) {
-  return e.detail.value("constraints", json::array());
+const std::vector<ConstraintRecord>& SectionProblem::constraint_table(const Evaluation& e) {
+  return e.detail.constraints;
 }
 
 }  // namespace fulmar::optimize

@@ -8,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include "geometry/cst.h"
+#include "geometry/cst_measures.h"
 #include "optimize/case_file.h"
 #include "optimize/driver.h"
 #include "optimize/section_evaluator.h"
@@ -37,40 +38,16 @@ struct DesignSpace {
 // /parameterization/bounds when the baseline lies outside the absolute bounds.
 DesignSpace design_space(const Case& c, const CstShape& baseline);
 
-// Geometry of a CST shape, measured on the analytic surfaces (smooth in the coefficients, which
-// the finite-difference gradients need). Lengths in chord fractions.
-struct GeometryMeasures {
-  double thickness = 0, thickness_x = 0;  // maximum of y_u - y_l and its x
-  double camber = 0, camber_x = 0;        // (y_u + y_l)/2 of largest magnitude, signed, and its x
-  std::vector<double> spar_thickness;     // thickness at each spar station of the case
-  double te_gap = 0;
-  double te_angle_deg = 0;   // wedge angle between the surface tangents at x = 1
-  double le_radius = 0;      // the smaller of the two surfaces' nose radii a_0^2 / 2 (Kulfan 2008)
-  double area = 0;           // integral of the thickness over the chord
-  double min_shape_gap = 0;  // min over x of S_u(x) - S_l(x) (thickness / class function)
-  int reversals_upper = 0, reversals_lower = 0;  // counted on the section (geometry/metrics.h)
-  // Strength of the first curvature reversal beyond the allowed number on each surface: the
-  // reversals between runs of one sign of y'' are ranked by min(peak |y''| before, after); this is
-  // the (allowed + 1)-th largest, 0 when there are no more reversals than allowed. Unlike the
-  // count it grows continuously from 0 as a wave appears, so the search can see it coming.
-  double excess_reversal_upper = 0, excess_reversal_lower = 0;  // 1/chord
-};
+// Geometry of a CST shape (geometry/cst_measures.h), with the case's spar stations.
+using GeometryMeasures = CstMeasures;
 // `allowed_upper` / `allowed_lower`: curvature reversals tolerated on each surface.
 GeometryMeasures measure_geometry(const CstShape& shape, const std::vector<SparLimit>& spars,
                                   int allowed_upper = 0, int allowed_lower = 1);
 
-// A curvature reversal weaker than this (|y''| peak on the weaker side, 1/chord) is rounding,
-// not a wave (about the curvature of a 0.5 % camber arc: common practice for smoothness checks).
-inline constexpr double kFlatCurvature = 0.05;
-nlohmann::json to_json(const GeometryMeasures& g);
-
-// Thickness y_u(x) - y_l(x) of a CST shape at x in [0, 1].
-double cst_thickness_at(const CstShape& shape, double x);
-
 // Objective of a design whose analysis failed: 100 x cd = 5 is cd 0.05, worse than any attached
 // flow section at these conditions, finite so the search can move away.
 inline constexpr double kFailedObjective = 5.0;
-// Name of the maximum-lift constraint in tables and history.
+// Display name of the maximum-lift constraint (its id: kClMaxId).
 inline constexpr const char* kClMaxConstraint = "cl_max at landing";
 
 class SectionProblem {
@@ -84,11 +61,14 @@ class SectionProblem {
   Evaluation evaluate(const std::vector<double>& x, int panels) const;
   // The search problem (panels of the case's search resolution).
   SearchProblem search_problem() const;
-  // What each constraint is, for tables: [{name, value, limit, kind ("min"/"max"), satisfied}].
-  static nlohmann::json constraint_table(const Evaluation& e);
+  // Stable ids of the constraints (ConstraintRecord::id), in the order of constraint_names.
+  const std::vector<std::string>& constraint_ids() const { return ids_; }
+  // The unscaled constraint table of an evaluation of this problem.
+  static const std::vector<ConstraintRecord>& constraint_table(const Evaluation& e);
 
  private:
   struct Limit {
+    std::string id;  // stable (ConstraintRecord::id)
     std::string name;
     bool is_min = true;
     double limit = 0;
@@ -99,6 +79,7 @@ class SectionProblem {
   DesignSpace space_;
   std::vector<Limit> limits_;
   std::vector<std::string> names_;
+  std::vector<std::string> ids_;
 };
 
 }  // namespace fulmar::optimize

@@ -66,7 +66,7 @@ const std::vector<BadCase> kBadCases = {
     {"MissingField", [](json& j) { j["airplane"].erase("chord"); }, "/airplane/chord",
      "missing required field"},
     {"NegativeMass", [](json& j) { j["airplane"]["mass"] = -750; }, "/airplane/mass",
-     "must be > 0"},
+     "must be a positive number"},
     {"ClMaxBelowCruiseCl",
      [](json& j) {
        j["constraints"]["cl_max"] = {{"min", 0.3}};
@@ -89,21 +89,25 @@ const std::vector<BadCase> kBadCases = {
      [](json& j) {
        j["design_points"][1] = {{"cl", 0.5}, {"reynolds", 3e6}, {"mach", 0.8}};
      },
-     "/design_points/1/mach", "must be in [0, 0.7)"},
+     "/design_points/1/mach", "must be in [0, 0.7]"},
     {"FlightAndDirectMixed", [](json& j) { j["design_points"][0]["cl"] = 0.4; }, "/design_points/0",
      "not both"},
     {"FlightPointWithoutAirplane", [](json& j) { j.erase("airplane"); }, "/design_points/0/speed",
      "needs the airplane"},
     {"AltitudeOutsideAtmosphere", [](json& j) { j["design_points"][0]["altitude"] = -100; },
-     "/design_points/0/altitude", "must be in [0, 20000]"},
+     "/design_points/0/altitude", "outside the standard atmosphere range 0 to 20000 m"},
     {"StallTooSlow", [](json& j) { j["landing"]["stall_speed"] = 18; }, "/landing/stall_speed",
      "beyond what a clean section reaches"},
     {"NoDesignPoints", [](json& j) { j["design_points"] = json::array(); }, "/design_points",
      "at least one design point"},
     {"TripOutsideChord", [](json& j) { j["transition"]["trip_upper"] = 1.5; },
-     "/transition/trip_upper", "must be in (0, 1]"},
+     "/transition/trip_upper", "must be an x/c in [0, 1]"},
     {"NcritZero", [](json& j) { j["transition"]["ncrit"] = 0; }, "/transition/ncrit",
-     "must be in (0, 20]"},
+     "must be in [0.5, 20]"},
+    {"NcritBelowTheViscousRule", [](json& j) { j["transition"]["ncrit"] = 0.3; },
+     "/transition/ncrit", "must be in [0.5, 20] (got 0.3)"},
+    {"FlightPointTooFast", [](json& j) { j["design_points"][0]["speed"] = 260; },
+     "/design_points/0/speed", "gives a Mach number of"},
     {"ScenarioWeight",
      [](json& j) {
        j["transition"]["scenarios"] = {{{"name", "a"}, {"weight", -1}}};
@@ -161,8 +165,8 @@ const std::vector<BadCase> kBadCases = {
      "must be an integer"},
     {"TimeLimitNegative", [](json& j) { j["optimizer"]["time_limit_s"] = -5; },
      "/optimizer/time_limit_s", "must be > 0"},
-    {"VerifyCoarserThanSearch", [](json& j) { j["analysis"]["verify_panels"] = 100; }, "/analysis",
-     "verify_panels"},
+    {"VerifyCoarserThanSearch", [](json& j) { j["analysis"]["verify_panels"] = 100; },
+     "/analysis/verify_panels", "must be >= panels"},
     {"ClMaxMarginTooLarge", [](json& j) { j["analysis"]["search_cl_max_margin"] = 0.5; },
      "/analysis/search_cl_max_margin", "must be"},
     {"TooFewOutputPoints", [](json& j) { j["outputs"]["points"] = 5; }, "/outputs/points",
@@ -171,7 +175,7 @@ const std::vector<BadCase> kBadCases = {
      [](json& j) {
        j["outputs"]["cad"] = {{"formats", {"step", "stl"}}};
      },
-     "/outputs/cad/formats/1", "must be one of dxf, iges, step, svg, csv"},
+     "/outputs/cad/formats/1", "must be one of dxf, iges, step, csv, svg"},
     {"NoCadFormat",
      [](json& j) {
        j["outputs"]["cad"] = {{"formats", json::array()}};
@@ -181,7 +185,7 @@ const std::vector<BadCase> kBadCases = {
      [](json& j) {
        j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"units", "ft"}};
      },
-     "/outputs/cad/units", "must be mm, m or in"},
+     "/outputs/cad/units", "must be one of mm, m, in"},
     {"NegativeCadChord",
      [](json& j) {
        j["outputs"]["cad"] = {{"formats", {"dxf"}}, {"chord", -3}};
@@ -201,9 +205,47 @@ TEST(CliOptimize, NotJsonNamesTheLine) {
   const CliResult r =
       run_fulmar({"optimize", (dir / "broken.json").string(), "-o", (dir / "out").string()});
   EXPECT_EQ(r.exit_code, 2);
-  EXPECT_NE(r.err.find("broken.json: line 4: not valid JSON"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("broken.json:4:3: expected ',' or '}' (found '\"')"), std::string::npos)
+      << r.err;
+  EXPECT_EQ(r.err.find("parse_error"), std::string::npos) << r.err;
   EXPECT_FALSE(fs::exists(dir / "out"));
   fs::remove_all(dir);
+}
+
+// --check accepts exactly what the run accepts: for one value of each rule family (flight,
+// analysis, transition, optimizer) that breaks a rule, `--check` and the run both stop with exit
+// code 2 and the same message, before any work (nothing written).
+struct Family {
+  std::string name;
+  std::function<void(json&)> spoil;
+  std::string place;
+};
+
+TEST(CliOptimize, CheckAndRunRejectTheSameValueOfEachRuleFamily) {
+  const std::vector<Family> families = {
+      {"flight", [](json& j) { j["design_points"][0]["altitude"] = 21000; },
+       "/design_points/0/altitude"},
+      {"analysis", [](json& j) { j["analysis"]["panels"] = 40; }, "/analysis/panels"},
+      {"transition", [](json& j) { j["transition"]["ncrit"] = 0.3; }, "/transition/ncrit"},
+      {"optimizer", [](json& j) { j["optimizer"]["fd_step"] = 0.5; }, "/optimizer/fd_step"},
+  };
+  for (const Family& f : families) {
+    const fs::path dir = fresh_directory("optimize_family");
+    json j = demo();
+    f.spoil(j);
+    std::ofstream(dir / "case.json") << j.dump(2);
+    const CliResult check = run_fulmar({"optimize", (dir / "case.json").string(), "--check"});
+    const CliResult run =
+        run_fulmar({"optimize", (dir / "case.json").string(), "-o", (dir / "out").string()});
+    EXPECT_EQ(check.exit_code, 2) << f.name << ": " << check.out << check.err;
+    EXPECT_EQ(run.exit_code, 2) << f.name << ": " << run.out << run.err;
+    EXPECT_NE(check.err.find("case.json: " + f.place + ": "), std::string::npos)
+        << f.name << ": " << check.err;
+    EXPECT_EQ(check.err, run.err) << f.name;
+    EXPECT_TRUE(run.out.empty()) << f.name << ": " << run.out;
+    EXPECT_FALSE(fs::exists(dir / "out")) << f.name;
+    fs::remove_all(dir);
+  }
 }
 
 TEST(CliOptimize, ExampleCasesAreValid) {
@@ -258,6 +300,26 @@ TEST(CliOptimize, SmallOptimizationImprovesAPoorBaselineWithinItsConstraints) {
   // At least 3 % less drag: thinning from 21 % to about 12 % alone is worth more (see above).
   EXPECT_LT(cd1, 0.97 * cd0) << cd0 << " -> " << cd1;
   EXPECT_TRUE(fs::exists(dir / "out" / "optimized_cst.json"));
+  fs::remove_all(dir);
+}
+
+// The bounds of the viscous analysis' rules (critical N 0.5, a trip at the leading edge) pass
+// --check, and the run analyses with them: its baseline analysis converges (a value the run
+// could not analyse would have been refused by --check).
+TEST(CliOptimize, BoundaryValuesAcceptedByCheckAreAnalysedByTheRun) {
+  const fs::path dir = fresh_directory("optimize_bounds");
+  json j = small_case();
+  j["transition"] = {{"ncrit", 0.5}, {"trip_lower", 0.0}};
+  j["optimizer"]["max_evaluations"] = 2;
+  const fs::path c = dir / "case.json";
+  std::ofstream(c) << j.dump(2);
+  const CliResult check = run_fulmar({"optimize", c.string(), "--check"});
+  ASSERT_EQ(check.exit_code, 0) << check.err;
+  const CliResult r = run_fulmar({"optimize", c.string(), "-o", (dir / "out").string()});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  std::ifstream in(dir / "out" / "summary.json");
+  const json s = json::parse(in);
+  EXPECT_TRUE(s.at("baseline").at("analysis_ok").get<bool>()) << s.at("baseline").dump();
   fs::remove_all(dir);
 }
 

@@ -4,6 +4,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 #include <nlohmann/json.hpp>
 #include <sstream>
@@ -71,6 +72,43 @@ TEST(CliViscous, TargetLiftIsReached) {
   ASSERT_TRUE(j["converged"].get<bool>()) << j["reason"];
   EXPECT_NEAR(j["cl"].get<double>(), 0.5, 1e-4);  // the solver's target tolerance is 1e-5
   EXPECT_DOUBLE_EQ(j["cl_target"].get<double>(), 0.5);
+}
+
+// fulmar's polar table: the conditions in words, the columns grouped as angle | forces | drag
+// split | transition | status, and the summary under it, with the same numbers as the JSON.
+TEST(CliViscous, PolarTextGroupsTheColumnsAndSummarises) {
+  const std::vector<std::string> args = {"polar",   "naca0012", "--re",     "3e6",
+                                         "--alpha", "0:4:2",    "--panels", "120"};
+  const CliResult r = run_fulmar(args);
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  for (const char* words :
+       {"viscous polar", "Reynolds number 3e+06, Mach 0.000", "critical N 9; no trips", "| forces",
+        "| drag split", "| transition x/c", "cm c/4", "friction pressure", "highest lift",
+        "least drag", "converged      3 of 3 angles"})
+    EXPECT_NE(r.out.find(words), std::string::npos) << words << "\n" << r.out;
+  std::vector<std::string> with_json = args;
+  with_json.push_back("--json");
+  const nlohmann::json j = run_json(with_json);
+  for (const nlohmann::json& p : j["points"]) {
+    char row[64];
+    std::snprintf(row, sizeof row, "%.2f |", p["alpha"].get<double>());
+    char cd[32];
+    std::snprintf(cd, sizeof cd, " %.5f ", p["cd"].get<double>());
+    const auto at = r.out.find(row);
+    ASSERT_NE(at, std::string::npos) << row << "\n" << r.out;
+    const std::string line = r.out.substr(at, r.out.find('\n', at) - at);
+    EXPECT_NE(line.find(cd), std::string::npos) << cd << " in " << line;
+  }
+}
+
+// A critical N below the viscous analysis' rule (ViscousOptions: [0.5, 20]) is refused before
+// any work, with the option, the rule and the value.
+TEST(CliViscous, NcritBelowTheRuleIsRefusedWithTheRule) {
+  const CliResult r =
+      run_fulmar({"analyze", "naca0012", "--alpha", "2", "--re", "3e6", "--ncrit", "0.3"});
+  EXPECT_EQ(r.exit_code, 2);
+  EXPECT_NE(r.err.find("--ncrit: must be in [0.5, 20] (got 0.3)"), std::string::npos) << r.err;
+  EXPECT_TRUE(r.out.empty()) << r.out;
 }
 
 TEST(CliViscous, TextOutputWithoutJson) {

@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "common/error.h"
+#include "common/json_text.h"
 
 namespace fulmar::study {
 namespace {
@@ -244,16 +245,7 @@ StudyDefinition study_from_json(const json& root, const std::string& label,
 
 StudyDefinition parse_study(const std::string& text, const std::string& label,
                             const std::filesystem::path& base_dir) {
-  json root;
-  try {
-    root = json::parse(text);
-  } catch (const json::parse_error& e) {
-    size_t line = 1;
-    for (size_t i = 0; i < e.byte && i < text.size(); ++i) line += text[i] == '\n';
-    throw InputError(label + ": line " + std::to_string(line) + ": not valid JSON (" + e.what() +
-                     ")");
-  }
-  return study_from_json(root, label, base_dir);
+  return study_from_json(parse_json_text(text, label), label, base_dir);
 }
 
 StudyDefinition load_study(const std::filesystem::path& path) {

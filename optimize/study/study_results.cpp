@@ -10,13 +10,19 @@
 #include <sstream>
 
 #include "common/atomic_file.h"
+#include "common/error.h"
 #include "geometry/cst.h"
+#include "optimize/evaluation_record.h"
 #include "optimize/svg_plot.h"
 
 namespace fulmar::study {
 namespace {
 
 using nlohmann::json;
+
+bool feasible(const json& summary) {
+  return optimize::json_read::boolean(summary, "feasible", "summary");
+}
 
 double jnum(const json& j, const char* key) {
   if (!j.is_object() || !j.contains(key) || !j.at(key).is_number()) return std::nan("");
@@ -76,11 +82,16 @@ bool has_scenarios(const std::vector<std::string>& labels,
          labels.front() != pts.front().value("point", std::string());
 }
 
-std::vector<std::string> constraint_keys(const std::vector<PointRecord>& records, double tol) {
-  std::vector<std::string> keys;
+// The constraints of the study, identified by id, in order of first appearance; each with its
+// display key.
+std::vector<std::pair<std::string, std::string>> constraint_keys(
+    const std::vector<PointRecord>& records, double tol) {
+  std::vector<std::pair<std::string, std::string>> keys;
   for (const auto& r : records)
     for (const auto& c : constraint_states(r.summary, tol))
-      if (std::find(keys.begin(), keys.end(), c.key) == keys.end()) keys.push_back(c.key);
+      if (std::find_if(keys.begin(), keys.end(), [&](const auto& k) { return k.first == c.id; }) ==
+          keys.end())
+        keys.emplace_back(c.id, c.key);
   return keys;
 }
 
@@ -112,12 +123,13 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
   std::sort(rows.begin(), rows.end());
   std::sort(cols.begin(), cols.end());
   const double tol = study.active_tolerance;
-  const std::vector<std::string> keys = constraint_keys(records, tol);
-  std::vector<std::string> active_keys;
+  std::vector<std::pair<std::string, std::string>> active_keys;  // id, display key
   for (const auto& r : records)
     for (const auto& c : constraint_states(r.summary, tol))
-      if (c.active && std::find(active_keys.begin(), active_keys.end(), c.key) == active_keys.end())
-        active_keys.push_back(c.key);
+      if (c.active && std::find_if(active_keys.begin(), active_keys.end(), [&](const auto& k) {
+                        return k.first == c.id;
+                      }) == active_keys.end())
+        active_keys.emplace_back(c.id, c.key);
   double lo = 1e300, hi = -1e300;
   for (const auto& r : records) {
     const double cd = weighted_cd(r);
@@ -169,12 +181,13 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
         std::string marks;
         for (const auto& c : constraint_states(rec->summary, tol))
           if (c.active) {
-            const auto k =
-                std::find(active_keys.begin(), active_keys.end(), c.key) - active_keys.begin();
-            marks += (marks.empty() ? "" : ",") + std::to_string(k + 1);
+            const auto k = std::find_if(active_keys.begin(), active_keys.end(),
+                                        [&](const auto& a) { return a.first == c.id; }) -
+                           active_keys.begin();
+            if (!marks.empty()) marks += ",";
+            marks += std::to_string(k + 1);
           }
-        if (!rec->summary.value("feasible", false))
-          marks += marks.empty() ? "infeasible" : " infeasible";
+        if (!feasible(rec->summary)) marks += marks.empty() ? "infeasible" : " infeasible";
         o << "<text x=\"" << f(x + cell_w / 2) << "\" y=\"" << f(y + 32)
           << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">"
           << xml_escaped(marks) << "</text>\n";
@@ -188,7 +201,7 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
   for (size_t k = 0; k < active_keys.size(); ++k) {
     ly += 16;
     o << "<text x=\"" << f(left + 12) << "\" y=\"" << f(ly) << "\">" << k + 1 << ": "
-      << xml_escaped(active_keys[k]) << "</text>\n";
+      << xml_escaped(active_keys[k].second) << "</text>\n";
   }
   o << "</g>\n</svg>\n";
   return o.str();
@@ -198,13 +211,18 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
 
 std::vector<ConstraintState> constraint_states(const json& summary, double active_tolerance) {
   std::vector<ConstraintState> out;
-  for (const auto& c : summary.value("constraints", json::array())) {
+  const json& rows = optimize::json_read::member(summary, "constraints", "summary");
+  if (!rows.is_array()) throw InputError("summary/constraints: not a list");
+  for (size_t i = 0; i < rows.size(); ++i) {
+    const optimize::ConstraintRecord c =
+        optimize::constraint_record_from_json(rows[i], "summary/constraints/" + std::to_string(i));
     ConstraintState s;
-    const std::string name = c.value("name", std::string());
-    s.key = name + (c.value("kind", std::string("min")) == "min" ? " >=" : " <=");
-    s.value = jnum(c, "value");
-    s.limit = jnum(c, "limit");
-    s.met = c.value("satisfied", false);
+    s.id = c.id;
+    s.key = c.name;
+    s.key += c.is_min ? " >=" : " <=";
+    s.value = c.value;
+    s.limit = c.limit;
+    s.met = c.satisfied;
     s.active = constraint_active(s.value, s.limit, active_tolerance);
     out.push_back(s);
   }
@@ -228,15 +246,16 @@ std::string study_csv(const StudyDefinition& study, const std::vector<PointRecor
   o << ",cl_max,t_c";
   for (const auto& k : keys)
     for (const char* what : {" value", " limit", " active", " met"})
-      o << "," << csv_field(k + what);
+      o << "," << csv_field(k.second + what);
   o << ",coordinates,coordinates_csv,cst\n";
   for (const auto& r : records) {
     const json& opt = r.summary.value("optimized", json::object());
     o << r.point.index + 1;
     for (double v : r.point.values) o << "," << number_text(v, 12);
-    o << "," << csv_field(r.start) << "," << (r.summary.value("feasible", false) ? "true" : "false")
-      << "," << (r.summary.value("converged", false) ? "true" : "false") << ","
-      << r.summary.value("evaluations", 0) << "," << number_text(weighted_cd(r), 8);
+    o << "," << csv_field(r.start) << "," << (feasible(r.summary) ? "true" : "false") << ","
+      << (optimize::json_read::boolean(r.summary, "converged", "summary") ? "true" : "false") << ","
+      << optimize::json_read::integer(r.summary, "evaluations", "summary") << ","
+      << number_text(weighted_cd(r), 8);
     const auto cds = design_point_cd(r, scen);
     for (const auto& l : labels) {
       const auto it = cds.find(l);
@@ -246,7 +265,7 @@ std::string study_csv(const StudyDefinition& study, const std::vector<PointRecor
     const auto states = constraint_states(r.summary, tol);
     for (const auto& k : keys) {
       const auto it = std::find_if(states.begin(), states.end(),
-                                   [&](const ConstraintState& s) { return s.key == k; });
+                                   [&](const ConstraintState& s) { return s.id == k.first; });
       if (it == states.end()) {
         o << ",,,,";
         continue;
@@ -306,16 +325,18 @@ std::string trade_svg(const StudyDefinition& study, const std::vector<PointRecor
   bad.markers = true;
   bad.colour = "#b03a2e";
   for (const auto* r : sorted)
-    if (!r->summary.value("feasible", false))
+    if (!feasible(r->summary))
       bad.x.push_back(r->point.values[0]), bad.y.push_back(weighted_cd(*r));
   if (!bad.x.empty()) cd.series.push_back(bad);
 
   // The strip: constraint k's active points at height k.
-  std::vector<std::string> active_keys;
+  std::vector<std::pair<std::string, std::string>> active_keys;  // id, display key
   for (const auto* r : sorted)
     for (const auto& c : constraint_states(r->summary, tol))
-      if (c.active && std::find(active_keys.begin(), active_keys.end(), c.key) == active_keys.end())
-        active_keys.push_back(c.key);
+      if (c.active && std::find_if(active_keys.begin(), active_keys.end(), [&](const auto& k) {
+                        return k.first == c.id;
+                      }) == active_keys.end())
+        active_keys.emplace_back(c.id, c.key);
   Chart strip;
   strip.title = active_keys.empty()
                     ? "Active constraints: none at any point"
@@ -325,13 +346,13 @@ std::string trade_svg(const StudyDefinition& study, const std::vector<PointRecor
   strip.height = 120 + 22 * double(active_keys.size());
   for (size_t k = 0; k < active_keys.size(); ++k) {
     Series s;
-    s.label = std::to_string(k + 1) + ": " + active_keys[k];
+    s.label = std::to_string(k + 1) + ": " + active_keys[k].second;
     s.colour = colours[(k + 1) % colours.size()];
     s.line = false;
     s.markers = true;
     for (const auto* r : sorted)
       for (const auto& c : constraint_states(r->summary, tol))
-        if (c.active && c.key == active_keys[k])
+        if (c.active && c.id == active_keys[k].first)
           s.x.push_back(r->point.values[0]), s.y.push_back(double(k + 1));
     strip.series.push_back(s);
   }
@@ -398,8 +419,7 @@ std::string study_report(const StudyDefinition& study, const std::vector<PointRe
     m << "| " << r.point.index + 1 << " |";
     for (double v : r.point.values) m << " " << number_text(v) << " |";
     m << " " << fixed(weighted_cd(r), 5) << " | " << fixed(jnum(opt, "t_c"), 4) << " | "
-      << fixed(jnum(opt, "cl_max"), 3) << " | "
-      << (r.summary.value("feasible", false) ? "yes" : "**no**") << " | "
+      << fixed(jnum(opt, "cl_max"), 3) << " | " << (feasible(r.summary) ? "yes" : "**no**") << " | "
       << active_list(constraint_states(r.summary, tol)) << " | " << r.start << " |\n";
   }
   if (records.size() < total) {

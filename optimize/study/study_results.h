@@ -21,9 +21,11 @@ struct PointRecord {
   nlohmann::json summary;  // the point's summary.json (run_optimization)
 };
 
-// One constraint of one point's verified optimum, from summary.json's "constraints".
+// One constraint of one point's verified optimum, from summary.json's "constraints" (read
+// strictly: a missing key is an InputError naming it).
 struct ConstraintState {
-  std::string key;  // name and sense, e.g. "t/c >=" (the same at every point of a study)
+  std::string id;   // stable id (optimize::ConstraintRecord::id): what identifies it across points
+  std::string key;  // name and sense for headings, e.g. "t/c >=" (display text only)
   double value = 0, limit = 0;  // value NaN when the analysis failed
   bool met = false;
   bool active = false;  // within the study's active_tolerance of the limit (constraint_active)

@@ -7,6 +7,7 @@
 
 #include <sstream>
 
+#include "common/error.h"
 #include "geometry/cst.h"
 #include "geometry/naca.h"
 #include "optimize/study/study_test_case.h"
@@ -31,19 +32,47 @@ json summary(double cd, double tc, double limit, bool feasible, bool converged =
                                              {"converged", converged},
                                              {"cd", cd},
                                              {"cl", 0.5}}})}};
-  s["constraints"] = json::array(
-      {{{"name", "curvature reversal, upper surface (strength, 1/c)"},
-        {"value", 0},
-        {"limit", 0.05},
-        {"kind", "max"},
-        {"satisfied", true}},
-       {{"name", "t/c"}, {"value", tc}, {"limit", limit}, {"kind", "min"}, {"satisfied", feasible}},
-       {{"name", "cm at cruise"},
-        {"value", -0.05},
-        {"limit", -0.08},
-        {"kind", "min"},
-        {"satisfied", true}}});
+  s["constraints"] = json::array({{{"id", "reversal_upper"},
+                                   {"name", "curvature reversal, upper surface (strength, 1/c)"},
+                                   {"value", 0},
+                                   {"limit", 0.05},
+                                   {"kind", "max"},
+                                   {"satisfied", true}},
+                                  {{"id", "thickness_min"},
+                                   {"name", "t/c"},
+                                   {"value", tc},
+                                   {"limit", limit},
+                                   {"kind", "min"},
+                                   {"satisfied", feasible}},
+                                  {{"id", "cm_cruise"},
+                                   {"name", "cm at cruise"},
+                                   {"value", -0.05},
+                                   {"limit", -0.08},
+                                   {"kind", "min"},
+                                   {"satisfied", true}}});
   return s;
+}
+
+// Constraints are told apart by their id, not by their text: two with the same display text (the
+// trailing-edge gap's min and max share theirs) stay two, and a missing key is an error naming it.
+TEST(StudyResults, ConstraintStatesAreIdentifiedByIdAndReadStrictly) {
+  json s = summary(0.006, 0.12, 0.12, true);
+  const auto states = constraint_states(s, 0.01);
+  ASSERT_EQ(states.size(), 3u);
+  EXPECT_EQ(states[1].id, "thickness_min");
+  EXPECT_EQ(states[1].key, "t/c >=");
+  s["constraints"][0].erase("id");
+  try {
+    constraint_states(s, 0.01);
+    FAIL() << "expected InputError";
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()), "summary/constraints/0/id: missing");
+  }
+  json f = summary(0.006, 0.12, 0.12, true);
+  f.erase("feasible");
+  const StudyDefinition d = study_from_json(testing::study_case_json(), "study.json", ".");
+  const auto pts = sweep_points(d);
+  EXPECT_THROW(study_csv(d, {{pts[0], "baseline", f}}), InputError);
 }
 
 std::vector<PointRecord> records(const StudyDefinition& s) {

@@ -10,6 +10,7 @@
 
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "optimize/evaluation_record.h"
 #include "optimize/run.h"
 #include "optimize/section_problem.h"
 
@@ -62,10 +63,10 @@ struct Start {
 Start start_of(const StudyPoint& p, const PointRecord* pred) {
   Start s;
   if (p.predecessor < 0 || !pred) return s;
-  if (!pred->summary.value("feasible", false)) return s;
-  const json opt = pred->summary.value("optimized", json::object());
-  if (!opt.contains("cst")) return s;
-  s.cst = opt.at("cst");
+  const std::string where = pred->point.dir + "/" + optimize::kSummaryFile;
+  if (!optimize::json_read::boolean(pred->summary, "feasible", where)) return s;
+  s.cst = optimize::json_read::member(
+      optimize::json_read::member(pred->summary, "optimized", where), "cst", where + "/optimized");
   s.text = "point " + std::to_string(p.predecessor + 1);
   return s;
 }
@@ -242,7 +243,8 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
               "): weighted cd " +
               (std::isfinite(cd) ? number_text(cd, 5) : std::string("(analysis failed)")) + ", " +
               (r.feasible ? "constraints met" : "constraints NOT met") + ", " +
-              std::to_string(r.summary.value("evaluations", 0)) + " analyses");
+              std::to_string(optimize::json_read::integer(r.summary, "evaluations", "summary")) +
+              " analyses");
           pred = PointRecord{p, s.text, r.summary};
         } catch (...) {
           std::lock_guard<std::mutex> lock(mutex);

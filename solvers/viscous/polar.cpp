@@ -136,23 +136,24 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
     std::stable_sort(lift.begin(), lift.end(),
                      [](auto* a, auto* b) { return a->alpha < b->alpha; });
   }
-  // The stall ends the search: once cl has fallen kStallLiftDrop below the highest value so far,
-  // later points are post-stall, where a second rise (seen on NACA 2412 at Re 2e5: 1.09 at 20.5
-  // deg, then 1.38 at 21, above the 1.24 of the stall at 14) is not the section's cl_max.
+  // The stall ends the search: later points are post-stall (stall_index).
   int nl = static_cast<int>(lift.size());
-  int k = 0;
-  for (int i = 1; i < nl; ++i) {
-    if (lift[i]->cl > lift[k]->cl) k = i;
-    if (lift[i]->cl < lift[k]->cl - kStallLiftDrop) {
-      if (i + 1 < nl)
-        add_note(s.note, "stall: at alpha " + fmt(lift[i]->alpha) + " cl is more than " +
+  {
+    std::vector<double> cl(lift.size());
+    for (std::size_t i = 0; i < lift.size(); ++i) cl[i] = lift[i]->cl;
+    const int stall = stall_index(cl, kStallLiftDrop, 1);
+    if (stall >= 0) {
+      if (stall + 1 < nl)
+        add_note(s.note, "stall: at alpha " + fmt(lift[stall]->alpha) + " cl is more than " +
                              fmt(kStallLiftDrop) +
                              " below its maximum; the points beyond are post-stall and not "
                              "searched for cl_max");
-      nl = i + 1;
-      break;
+      nl = stall + 1;
     }
   }
+  int k = 0;
+  for (int i = 1; i < nl; ++i)
+    if (lift[i]->cl > lift[k]->cl) k = i;
   s.cl_max = lift[k]->cl;
   s.alpha_cl_max = lift[k]->alpha;
   if (k == 0 && nl > 1) {
@@ -287,259 +288,33 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
 int refine_cl_max(const std::vector<ViscousResult>& known, const PointSolver& solve,
                   PolarSummary& summary) {
   if (!summary.has_cl_max || !summary.cl_max_bracketed) return 0;
-  struct Sample {
-    double alpha, cl;
-    const ViscousState* state;
-  };
-  std::vector<Sample> samples;
-  std::vector<ViscousResult> made;  // results of this refinement (their states warm-start)
-  made.reserve(64);
-  for (const ViscousResult& r : known)
-    if (r.converged) samples.push_back({r.alpha, r.cl, &r.state});
-  std::sort(samples.begin(), samples.end(), [](auto& a, auto& b) { return a.alpha < b.alpha; });
-  int k = -1;
-  for (int i = 0; i < static_cast<int>(samples.size()); ++i)
-    if (k < 0 || samples[i].cl > samples[k].cl) k = i;
-  if (k <= 0 || k + 1 >= static_cast<int>(samples.size())) return 0;
-
-  int solves = 0;
-  const PointSolver counted = [&](double alpha, const ViscousState* warm) {
-    ++solves;
-    return solve(alpha, warm);
-  };
-  double best_alpha = samples[k].alpha, best_cl = samples[k].cl;
-  // The parabola through the bracket's three samples: a refined sample more than
-  // kLiftJumpCheck above it may have jumped to another solution (NACA 0015 at Re 2e5: from 1.12
-  // at 16.5 deg to 1.34 at 17.06, and the search then climbed that branch to 1.42), so it is
-  // made again by checked sub-steps from its nearest sample. The bulge of a real peak above
-  // the parabola was at most 0.022 over 2-deg brackets (NACA 0009 at Re 1e6).
-  const Sample p0 = samples[k - 1], p1 = samples[k], p2 = samples[k + 1];
-  auto parabola = [&](double x) {
-    return p0.cl * (x - p1.alpha) * (x - p2.alpha) /
-               ((p0.alpha - p1.alpha) * (p0.alpha - p2.alpha)) +
-           p1.cl * (x - p0.alpha) * (x - p2.alpha) /
-               ((p1.alpha - p0.alpha) * (p1.alpha - p2.alpha)) +
-           p2.cl * (x - p0.alpha) * (x - p1.alpha) /
-               ((p2.alpha - p0.alpha) * (p2.alpha - p1.alpha));
-  };
-  // cl at `alpha`, warm-started from the nearest converged sample; -inf when it fails.
-  auto cl_at = [&](double alpha) {
-    const Sample* near = nullptr;
-    for (const Sample& s : samples)
-      if (!near || std::abs(s.alpha - alpha) < std::abs(near->alpha - alpha)) near = &s;
-    ViscousResult r = counted(alpha, near ? near->state : nullptr);
-    r.alpha = alpha;
-    if (r.converged && near && r.cl > parabola(alpha) + kLiftJumpCheck) {
-      ViscousResult anchor;
-      anchor.converged = true;
-      anchor.alpha = near->alpha;
-      anchor.cl = near->cl;
-      anchor.state = *near->state;
-      LiftPoint before;  // the sample next to `near` on the far side from alpha
-      for (const Sample& s : samples)
-        if ((s.alpha - near->alpha) * (alpha - near->alpha) < 0.0 &&
-            (!before.valid ||
-             std::abs(s.alpha - near->alpha) < std::abs(before.alpha - near->alpha)))
-          before = {s.alpha, s.cl, true};
-      r = sub_step_march(counted, alpha, anchor, before, nullptr);
-    }
-    if (!r.converged) return -std::numeric_limits<double>::infinity();
-    if (made.size() == made.capacity()) return r.cl;  // keep the states' addresses stable
-    made.push_back(std::move(r));
-    samples.push_back({alpha, made.back().cl, &made.back().state});
-    if (made.back().cl > best_cl) {
-      best_cl = made.back().cl;
-      best_alpha = alpha;
-    }
-    return made.back().cl;
-  };
-  const double g = (std::sqrt(5.0) - 1.0) / 2.0;
-  double a = samples[k - 1].alpha, b = samples[k + 1].alpha;
-  double x1 = b - g * (b - a), x2 = a + g * (b - a);
-  double f1 = cl_at(x1), f2 = cl_at(x2);
-  int failures = (f1 == -INFINITY) + (f2 == -INFINITY);
-  while (b - a > kClMaxRefineWidth && solves < 60) {
-    if (f1 >= f2) {
-      b = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = b - g * (b - a);
-      f1 = cl_at(x1);
-      failures += f1 == -INFINITY;
-    } else {
-      a = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = a + g * (b - a);
-      f2 = cl_at(x2);
-      failures += f2 == -INFINITY;
-    }
-  }
-  summary.cl_max = best_cl;
-  summary.alpha_cl_max = best_alpha;
-  std::string text = "refined by golden-section search to a " + fmt(b - a, 2) + " deg bracket (" +
-                     std::to_string(solves) + " solves";
-  if (failures > 0) text += ", " + std::to_string(failures) + " of them not converged";
-  add_note(summary.note, text + ")");
-  return solves;
-}
-
-double lift_jump(const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r) {
-  if (!before.valid || !r.converged || before.alpha == anchor.alpha) return 0.0;
-  const double slope = (anchor.cl - before.cl) / (anchor.alpha - before.alpha);
-  return r.cl - (anchor.cl + slope * (r.alpha - anchor.alpha));
-}
-
-ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousResult& anchor,
-                             LiftPoint& before, std::vector<ViscousResult>* sub_steps) {
-  const double dir = target > anchor.alpha ? 1.0 : -1.0;
-  ViscousResult cur = anchor;
-  LiftPoint prior = before;
-  double h = 0.5 * (target - anchor.alpha);
-  ViscousResult t;
-  t.reason = "sub-steps from " + fmt(anchor.alpha) + " deg did not reach " + fmt(target) + " deg";
-  while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
-    double a = cur.alpha + h;
-    if ((target - a) * dir < 1e-9) a = target;
-    ViscousResult u = solve(a, &cur.state);
-    u.alpha = a;
-    const bool smallest = std::abs(0.5 * h) < kMinSubStep * (1.0 - 1e-9);
-    if (!u.converged || (!smallest && std::abs(lift_jump(prior, cur, u)) > kLiftJumpCheck)) {
-      h *= 0.5;
-      continue;
-    }
-    if (a == target) {
-      t = std::move(u);
-      break;
-    }
-    if (sub_steps) sub_steps->push_back(u);
-    prior = {cur.alpha, cur.cl, true};
-    cur = std::move(u);
-  }
-  if (cur.alpha != anchor.alpha) {
-    before = prior;
-    anchor = std::move(cur);
-  }
-  if (!t.converged) t.alpha = target;
-  return t;
+  const LiftMaximum m = refine_lift_maximum(known, solve);
+  if (!m.refined) return 0;
+  summary.cl_max = m.cl_max;
+  summary.alpha_cl_max = m.alpha;
+  add_note(summary.note, m.note);
+  return m.solves;
 }
 
 Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarOptions& options) {
   const std::vector<double> grid = options.angles();
-  const int n = static_cast<int>(grid.size());
+  ContinuationOptions co;  // the defaults are the polar's march
+  co.alpha_from = options.alpha_from;
+  co.alpha_to = options.alpha_to;
+  co.alpha_step = options.alpha_step;
+  co.lead_in_step = std::min(options.alpha_step, 1.0);
+  Continuation c = march(solve, solve, alpha_start_deg, co);
   Polar polar;
-  polar.points.resize(static_cast<std::size_t>(n));
-  std::vector<ViscousResult> sub_steps;  // converged off-grid results (sub-steps)
-
-  int start = 0;
-  for (int i = 1; i < n; ++i)
-    if (std::abs(grid[i] - alpha_start_deg) < std::abs(grid[start] - alpha_start_deg)) start = i;
-
-  auto call = [&](double alpha, const ViscousState* warm) {
-    ++polar.solves;
-    return solve(alpha, warm);
-  };
-  // The result at `target` from the last converged result `anchor` (null: none; `before`: the
-  // converged angle before it in the march): warm; when that fails or jumps (lift_jump), and with
-  // `sub_step`, the sub-step march; then the jumped warm result if it converged; then cold.
-  auto advance = [&](ViscousResult* anchor, LiftPoint* before, double target, bool sub_step) {
-    if (!anchor) return call(target, nullptr);
-    ViscousResult r = call(target, &anchor->state);
-    r.alpha = target;
-    if (r.converged && std::abs(lift_jump(*before, *anchor, r)) <= kLiftJumpCheck) return r;
-    if (sub_step) {
-      ViscousResult t = sub_step_march(call, target, *anchor, *before, &sub_steps);
-      if (t.converged) return t;
-    }
-    if (r.converged) return r;
-    ViscousResult cold = call(target, nullptr);
-    if (cold.converged) return cold;
-    r.reason += sub_step ? "; sub-steps down to " + fmt(kMinSubStep, 2) +
-                               " deg from the last converged angle and a cold start also failed"
-                         : "; cold start also failed";
-    return r;
-  };
-
-  // Lead-in: when the grid does not reach the zero-lift angle, march to its nearest end from
-  // there (steps of at most alpha_step and 1 deg), since a cold start at high lift fails more
-  // often. The lead-in solutions only warm-start the first grid angle.
-  ViscousResult lead;
-  bool have_lead = false;
-  const double a0 = std::clamp(alpha_start_deg, -60.0, 60.0);
-  bool lead_previous = false;
-  LiftPoint lead_before;
-  if (std::abs(grid[start] - a0) > options.alpha_step + 1e-9) {
-    lead = call(a0, nullptr);
-    have_lead = lead_previous = lead.converged;
-    const double h = std::min(options.alpha_step, 1.0) * (grid[start] > a0 ? 1.0 : -1.0);
-    for (double a = a0 + h; std::abs(grid[start] - a) > 1e-9 && (grid[start] - a) * h > 0; a += h) {
-      ViscousResult r = advance(have_lead ? &lead : nullptr, &lead_before, a, lead_previous);
-      lead_previous = r.converged;
-      if (r.converged) {
-        if (have_lead) lead_before = {lead.alpha, lead.cl, true};
-        lead = std::move(r);
-        have_lead = true;
-      }
-    }
-  }
-  polar.points[start] =
-      advance(have_lead ? &lead : nullptr, &lead_before, grid[start], lead_previous);
-  polar.points[start].alpha = grid[start];
-
-  for (int dir : {+1, -1}) {
-    // The last converged result of this march (its state warm-starts the next angle).
-    ViscousResult anchor;
-    bool have_anchor = polar.points[start].converged || have_lead;
-    anchor = polar.points[start].converged ? polar.points[start] : lead;
-    bool previous_converged = polar.points[start].converged;
-    LiftPoint before;  // the converged angle before the anchor in this march
-    for (int i = start + dir; i >= 0 && i < n; i += dir) {
-      ViscousResult r =
-          advance(have_anchor ? &anchor : nullptr, &before, grid[i], previous_converged);
-      r.alpha = grid[i];
-      previous_converged = r.converged;
-      if (r.converged) {
-        if (have_anchor) before = {anchor.alpha, anchor.cl, true};
-        anchor = r;
-        have_anchor = true;
-      }
-      polar.points[i] = std::move(r);
-    }
-  }
-
-  // Back-fill: a failed angle next to a converged one is tried warm-started from that neighbour
-  // (the far side first: the march reached the angle from one side only, and hysteresis and
-  // the transition point's jumps make the sides differ). Each (angle, neighbour) pair once;
-  // passes repeat while an angle converges, since it may open the way to the next.
-  std::vector<std::array<bool, 2>> tried(static_cast<std::size_t>(n), {false, false});
-  for (bool changed = true; changed;) {
-    changed = false;
-    for (int i = 0; i < n; ++i) {
-      if (polar.points[i].converged) continue;
-      const int far = i > start ? 1 : 0;  // index into {i - 1, i + 1}
-      for (int side : {far, 1 - far}) {
-        const int nb = side == 0 ? i - 1 : i + 1;
-        if (nb < 0 || nb >= n || tried[i][side] || !polar.points[nb].converged) continue;
-        tried[i][side] = true;
-        ViscousResult r = call(grid[i], &polar.points[nb].state);
-        if (r.converged) {
-          r.alpha = grid[i];
-          polar.points[i] = std::move(r);
-          changed = true;
-          break;
-        }
-      }
-    }
-  }
-
-  polar.summary = summarize_polar(polar.points, &sub_steps);
+  polar.points = std::move(c.points);
+  polar.solves = c.solves;
+  polar.summary = summarize_polar(polar.points, &c.sub_steps);
   PolarSummary& s = polar.summary;
   if (options.refine_cl_max && s.cl_max_bracketed) {
     std::vector<ViscousResult> known;
     for (const ViscousResult& p : polar.points)
       if (p.converged && std::abs(p.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9)
         known.push_back(p);
-    for (const ViscousResult& t : sub_steps)
+    for (const ViscousResult& t : c.sub_steps)
       if (std::abs(t.alpha - s.alpha_cl_max) <= 2.0 * options.alpha_step + 1e-9 &&
           t.alpha >= grid.front() && t.alpha <= grid.back())
         known.push_back(t);

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "solvers/viscous/continuation.h"
 #include "solvers/viscous/viscous_solver.h"
 
 namespace fulmar::viscous {
@@ -27,21 +28,6 @@ struct PolarOptions {
   // The grid angles (deg), increasing.
   std::vector<double> angles() const;
 };
-
-// Smallest sub-step (deg) when a warm start fails and the step is halved from the last converged
-// state; also the width (deg) to which a lift maximum is refined.
-inline constexpr double kMinSubStep = 0.05;
-inline constexpr double kClMaxRefineWidth = 0.05;
-// A converged step of a march whose cl differs by more than this from the line through the two
-// converged angles before it is checked by halved sub-steps (it may have jumped to another
-// solution branch near stall; a real jump is found again by the sub-steps).
-inline constexpr double kLiftJumpCheck = 0.05;
-
-// A fall of cl by this much below the highest value so far marks the stall: cl_max is sought
-// only up to that point (a post-stall rise is not the section's maximum). 0.05 is ten times the
-// wiggles of converged polars near the peak at Re 2e5 (about 0.005) and below the fall of a
-// trailing-edge stall over 2-3 deg past the peak (NACA 4412 at Re 6e6: 0.044 over 2 deg).
-inline constexpr double kStallLiftDrop = 0.05;
 
 // Relative drag rise that bounds the low-drag range: the range is the cl interval around the
 // drag minimum where cd <= (1 + kBucketDragRise) cd_min.
@@ -98,46 +84,17 @@ struct Polar {
   int solves = 0;  // solver calls made (grid, fallbacks, sub-steps, refinement)
 };
 
-// One viscous solve: the result at `alpha_deg` warm-started from `warm` (null: cold start).
-// ViscousSolver::solve_alpha in production; a stand-in in tests.
-using PointSolver = std::function<ViscousResult(double alpha_deg, const ViscousState* warm)>;
-
-// A converged angle of a continuation (deg) and its lift; valid false: none.
-struct LiftPoint {
-  double alpha = 0.0, cl = 0.0;
-  bool valid = false;
-};
-
-// How far the lift of the converged `r` lies above (+) or below (-) the line through the two
-// converged angles `before` and `anchor` of a march, at r.alpha; 0 when there is no line
-// (before.valid false, the same angle twice, or r not converged).
-double lift_jump(const LiftPoint& before, const ViscousResult& anchor, const ViscousResult& r);
-
-// Continuation by halved sub-steps from the converged `anchor` to `target` (deg): the first step
-// is half the interval; a step that fails, or converges with |lift_jump| > kLiftJumpCheck from
-// the last two angles reached (except at the smallest step, above kMinSubStep, where any
-// converged one is taken), is halved. Returns the result at `target`, or one with converged
-// false (and a reason) when it was not reached. The converged intermediate results are appended
-// to `sub_steps` (may be null), and `anchor` and `before` become the last two angles reached,
-// so a march can go on from there.
-ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousResult& anchor,
-                             LiftPoint& before, std::vector<ViscousResult>* sub_steps);
-
-// The polar of `solver` over options.angles(). Continuation: the first angle solved is the grid
-// angle nearest the inviscid zero-lift angle (cold; when the grid does not reach the zero-lift
-// angle, warm from a lead-in march from it in steps of at most alpha_step and 1 deg); from there
-// the march goes up to alpha_to and down to alpha_from, each angle warm-started from the last
-// converged state. A warm start that fails, or converges with a lift more than kLiftJumpCheck
-// off the line through the two converged angles before it, is (when the previous grid angle
-// converged) approached by sub-steps from the last converged state, each checked in the same
-// way, halving down to kMinSubStep; then the jumped warm result is taken if it converged, else a
-// cold start is tried. Each solve is one ViscousSolver::solve_from (these fallbacks replace
-// solve_alpha's). A point that still
-// fails is recorded with converged = false and the march goes on from the last converged state;
-// after the march, a failed angle next to a converged one is tried warm-started from it (far
-// side first; repeated while angles converge). Then the summary (summarize_polar) and, with
-// options.refine_cl_max, refine_cl_max. Throws InputError for bad options; flow failures are in the
-// points.
+// The polar of `solver` over options.angles(): the continuation of continuation.h (march) with
+// its default options, each solve one ViscousSolver::solve_from (the march's fallbacks replace
+// solve_alpha's). The first angle solved is the grid angle nearest the inviscid zero-lift angle
+// (cold; when the grid does not reach the zero-lift angle, warm from a lead-in march from it in
+// steps of at most alpha_step and 1 deg); the march goes up to alpha_to and down to alpha_from,
+// checks lift jumps both ways, recovers failed warm starts by sub-steps (when the previous grid
+// angle converged) and a cold start, keeps a jump the sub-steps do not reach again, and
+// back-fills failed angles from converged neighbours. Then the summary (summarize_polar, with
+// the sub-steps as extra lift samples) and, with options.refine_cl_max, refine_cl_max on the
+// converged results within two steps of the maximum. Throws InputError for bad options; flow
+// failures are in the points.
 Polar sweep_polar(const ViscousSolver& solver, const PolarOptions& options);
 
 // The same with any point solver; `alpha_start_deg` picks the first angle (nearest grid angle).
@@ -149,13 +106,10 @@ Polar sweep_polar(const PointSolver& solve, double alpha_start_deg, const PolarO
 PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
                              const std::vector<ViscousResult>* extra = nullptr);
 
-// Golden-section refinement of a bracketed lift maximum (summary.cl_max_bracketed) between the
-// converged grid neighbours of summary.alpha_cl_max, to a bracket narrower than
-// kClMaxRefineWidth. `known`: converged results (any order) to warm-start from (the nearest in
-// alpha is used); a sample more than kLiftJumpCheck above the parabola through the bracket's
-// three points is made again by sub_step_march from its nearest sample (it may have jumped to
-// another solution branch). Updates cl_max, alpha_cl_max and note; leaves the summary as is when
-// it is not bracketed. Returns the number of solves made.
+// refine_lift_maximum (continuation.h) of a bracketed lift maximum (summary.cl_max_bracketed):
+// `known` are converged results (any order) around it to bracket and warm-start from. Updates
+// cl_max, alpha_cl_max and note; leaves the summary as is when it is not bracketed or the
+// highest known result has no neighbour on a side. Returns the number of solves made.
 int refine_cl_max(const std::vector<ViscousResult>& known, const PointSolver& solve,
                   PolarSummary& summary);
 

@@ -21,28 +21,9 @@
 #include "geometry/section.h"
 #include "solvers/inviscid/panel_solver.h"
 #include "solvers/viscous/boundary_layer.h"
+#include "solvers/viscous/viscous_options.h"
 
 namespace fulmar::viscous {
-
-struct ViscousOptions {
-  double reynolds = 1.0e6;        // chord Reynolds number, 1e4 .. 1e9
-  double mach = 0.0;              // free-stream Mach number, 0 .. 0.7
-  double n_crit = kDefaultNCrit;  // critical amplification factor, 0.5 .. 20
-  double trip_upper = 1.0;        // forced transition x/c on the upper surface, 0 .. 1 (1: free)
-  double trip_lower = 1.0;        // forced transition x/c on the lower surface, 0 .. 1 (1: free)
-  int max_iterations = 30;        // Newton iterations, 1 .. 500
-  // Stopping rule: converged when the largest absolute residual of all boundary-layer equations
-  // (each a dimensionless increment of ln theta, ln H*, ln c or N over one interval) is below
-  // `tolerance` after a full (unrelaxed) Newton step; 1e-14 .. 1e-3.
-  double tolerance = 1.0e-9;
-  double wake_length = 1.0;  // chords of wake behind the trailing edge, >= 1
-  // Throws InputError naming the field, its value and the rule it breaks.
-  void Validate() const;
-};
-
-enum class SolveStatus { kConverged, kNotConverged, kFailed };
-std::string to_string(SolveStatus status);  // "converged", "not_converged", "failed"
-SolveStatus solve_status_from_string(const std::string& text);  // throws InputError
 
 // The boundary-layer state of a solution, to warm-start a neighbouring one (same shape).
 struct ViscousState {

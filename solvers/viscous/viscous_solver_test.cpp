@@ -9,7 +9,6 @@
 #include <tuple>
 #include <vector>
 
-#include "common/error.h"
 #include "geometry/cst.h"
 #include "geometry/naca.h"
 #include "geometry/panelling.h"
@@ -466,22 +465,6 @@ TEST(ViscousSolver, TargetLiftIsReached) {
     ASSERT_TRUE(r.converged) << r.reason;
     EXPECT_NEAR(r.cl, cl, 1e-5);  // the stopping rule of solve_cl
   }
-}
-
-TEST(ViscousOptions, ValidateNamesTheField) {
-  ViscousOptions o;
-  o.reynolds = -5.0;
-  try {
-    o.Validate();
-    FAIL() << "no error";
-  } catch (const InputError& e) {
-    EXPECT_NE(std::string(e.what()).find("reynolds"), std::string::npos);
-  }
-  o = ViscousOptions{};
-  o.trip_upper = 1.5;
-  EXPECT_THROW(o.Validate(), InputError);
-  EXPECT_EQ(solve_status_from_string("not_converged"), SolveStatus::kNotConverged);
-  EXPECT_THROW(solve_status_from_string("fine"), InputError);
 }
 
 }  // namespace

@@ -14,6 +14,7 @@
 #include "app/section_options.h"
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/number_text.h"
 #include "geometry/panelling.h"
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
@@ -100,18 +101,25 @@ void run_inviscid(const AnalyzeArgs& args) {
     std::cout << j.dump(2) << "\n";
     return;
   }
-  std::printf("%s: inviscid, %d panels%s\n", section.name.c_str(), a.panels,
-              a.mach_given ? (", Mach " + std::to_string(a.mach).substr(0, 5)).c_str() : "");
-  std::printf("  alpha   %9.4f deg\n", alpha_deg);
-  std::printf("  cl      %9.5f   (circulation %.5f, pressure %.5f)\n", r.cl, r.cl_circulation,
-              r.cl_pressure);
-  std::printf("  cm c/4  %9.5f\n", r.cm);
-  std::printf("  cp_min  %9.4f\n", r.cp_min);
+  std::printf("%s - potential flow at one angle\n", section.name.c_str());
+  std::printf("  flow         %s\n",
+              a.mach_given ? ("Mach " + fixed_text(a.mach, 3) + " (Karman-Tsien)").c_str()
+                           : "incompressible");
+  std::printf("  analysis     %d panels, no boundary layer\n", a.panels);
+  std::printf("  result       %s\n\n",
+              r.converged ? "solved" : ("NOT solved: " + r.message).c_str());
+  std::printf("  angle        %s deg%s\n", fixed_text(alpha_deg, 3).c_str(),
+              args.cl ? (" (for cl " + fixed_text(*args.cl, 4) + ")").c_str() : "");
+  std::printf("  loads        cl %s   cm c/4 %s\n", fixed_text(r.cl, 5).c_str(),
+              fixed_text(r.cm, 5).c_str());
+  std::printf("  lift check   from the circulation %s, from the pressures %s\n",
+              fixed_text(r.cl_circulation, 5).c_str(), fixed_text(r.cl_pressure, 5).c_str());
+  std::printf("  pressure     Cp min %s", fixed_text(r.cp_min, 4).c_str());
   if (a.mach_given) {
-    std::printf("  critical Cp %.4f: %s\n", r.cp_critical,
-                r.critical_exceeded ? "EXCEEDED (locally supersonic)" : "not reached");
+    std::printf(", sonic Cp %s: %s", fixed_text(r.cp_critical, 4).c_str(),
+                r.critical_exceeded ? "REACHED (locally supersonic)" : "not reached");
   }
-  std::printf("  %s: %s\n", r.converged ? "converged" : "NOT converged", r.message.c_str());
+  std::printf("\n");
 }
 
 // The viscous surface table: the inviscid table's columns (ue from the viscous solution), then
@@ -192,18 +200,23 @@ void run_viscous(const AnalyzeArgs& args) {
     std::cout << j.dump(2) << "\n";
     return;
   }
-  std::printf("%s: viscous, Re %.4g, Mach %.3g, N_crit %.3g, %d panels\n", section.name.c_str(), re,
-              a.mach, options.n_crit, a.panels);
-  if (options.trip_upper < 1.0 || options.trip_lower < 1.0)
-    std::printf("  trips at x/c %.4g (upper), %.4g (lower)\n", options.trip_upper,
-                options.trip_lower);
-  std::printf("  alpha   %9.4f deg\n", r.alpha);
-  std::printf("  cl      %9.5f\n", r.cl);
-  std::printf("  cd      %9.6f   (friction %.6f, pressure %.6f)\n", r.cd, r.cd_friction,
-              r.cd_pressure);
-  std::printf("  cm c/4  %9.5f\n", r.cm);
-  std::printf("  transition x/c: upper %.4f, lower %.4f\n", r.transition_upper, r.transition_lower);
-  std::printf("  %s: %s\n", r.converged ? "converged" : "NOT converged", r.reason.c_str());
+  std::printf("%s - viscous analysis at one angle\n", section.name.c_str());
+  std::printf("  flow         Reynolds number %s, Mach %s\n", general_text(re, 4).c_str(),
+              fixed_text(a.mach, 3).c_str());
+  std::printf("  transition   %s\n", transition_words(options).c_str());
+  std::printf("  analysis     %d panels, %d Newton iterations\n", a.panels, r.iterations);
+  // The reason starts with what happened ("converged: max residual ..."); a failure is shouted.
+  std::printf("  result       %s%s\n\n", r.converged ? "" : "NOT CONVERGED - ", r.reason.c_str());
+  std::printf("  angle        %s deg%s\n", fixed_text(r.alpha, 3).c_str(),
+              args.cl ? (" (for cl " + fixed_text(*args.cl, 4) + ")").c_str() : "");
+  std::printf("  forces       cl %s   cd %s   cm c/4 %s\n", fixed_text(r.cl, 5).c_str(),
+              fixed_text(r.cd, 6).c_str(), fixed_text(r.cm, 5).c_str());
+  const double share = r.cd != 0.0 ? 100.0 / r.cd : std::nan("");
+  std::printf("  drag split   friction %s (%s %%), pressure %s (%s %%)\n",
+              fixed_text(r.cd_friction, 6).c_str(), fixed_text(r.cd_friction * share, 0).c_str(),
+              fixed_text(r.cd_pressure, 6).c_str(), fixed_text(r.cd_pressure * share, 0).c_str());
+  std::printf("  transition   upper x/c %s, lower x/c %s\n",
+              fixed_text(r.transition_upper, 4).c_str(), fixed_text(r.transition_lower, 4).c_str());
 }
 
 void run_analyze(const AnalyzeArgs& a) {
@@ -231,14 +244,14 @@ void add_analyze_command(CLI::App& app) {
       "lift coefficient (--cl): viscous with --re, potential flow with --inviscid.\n\n"
       "Viscous (--re): a panel method strongly coupled to integral boundary layers on both "
       "surfaces and the wake, e^N transition (--ncrit) or forced transition (--trip-upper, "
-      "--trip-lower), drag from the wake by Squire-Young, Karman-Tsien loads with --mach (to "
-      "0.7). JSON keys: alpha, cl, cd, cm, cd_friction, cd_pressure, transition_upper, "
+      "--trip-lower), drag from the wake by Squire-Young, Karman-Tsien loads with --mach. JSON "
+      "keys: alpha, cl, cd, cm, cd_friction, cd_pressure, transition_upper, "
       "transition_lower (x/c), converged, status, reason, residual, iterations, re, mach, ncrit. "
       "A solution that does not converge is a result, not an error: the exit code is 0, "
       "converged is false, status and reason say why, and a warning goes to stderr; its numbers "
       "are the last iterate and must not be used.\n\n"
       "Inviscid (--inviscid): a linear-vorticity panel method, Karman-Tsien corrected with "
-      "--mach (to 0.8).\n\n" +
+      "--mach.\n\n" +
           std::string(kCaution));
   add_section_options(cmd, args->section);
   auto* alpha = cmd->add_option("--alpha", args->alpha_deg, "Angle of attack, degrees")

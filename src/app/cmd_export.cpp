@@ -5,9 +5,10 @@
 #include <string>
 #include <vector>
 
-#include "app/cli_checks.h"
 #include "app/commands.h"
 #include "cad/export.h"
+#include "common/number_text.h"
+#include "common/rule_check.h"
 #include "geometry/shape_source.h"
 
 namespace fulmar::app {
@@ -30,7 +31,25 @@ struct ExportArgs {
   std::string output;
 };
 
+// Each number by the rule of cad::ExportOptions::Validate (placement and fit); the error names
+// the option.
+void check_export_args(const ExportArgs& a) {
+  auto check = [](const char* option, double value, auto&& set) {
+    check_at(option, general_text(value, 10), [&] {
+      cad::ExportOptions probe;
+      set(probe);
+      probe.Validate();
+    });
+  };
+  check("--chord", a.chord, [&](cad::ExportOptions& p) { p.placement.chord = a.chord; });
+  check("--twist", a.twist, [&](cad::ExportOptions& p) { p.placement.twist_deg = a.twist; });
+  check("--pivot", a.pivot, [&](cad::ExportOptions& p) { p.placement.pivot = a.pivot; });
+  check("--tolerance", a.tolerance, [&](cad::ExportOptions& p) { p.tolerance = a.tolerance; });
+  check("--degree", a.degree, [&](cad::ExportOptions& p) { p.degree = a.degree; });
+}
+
 void run_export(const ExportArgs& a) {
+  check_export_args(a);
   cad::ExportOptions o;
   o.format = cad::cad_format_from_string(a.format, "--format");
   o.placement.units = cad::length_unit_from_string(a.units, "--units");
@@ -79,7 +98,7 @@ void add_export_command(CLI::App& app) {
                   "coordinate file")
       ->required();
   cmd->add_option("--format", a->format, "dxf, iges, step, csv or svg")->required();
-  cmd->add_option("--chord", a->chord, "Chord length, in --units")->required()->check(positive());
+  cmd->add_option("--chord", a->chord, "Chord length, in --units")->required();
   cmd->add_option("--units", a->units,
                   "Length unit of chord, offset and file: mm (default), m, in");
   cmd->add_option("--twist", a->twist, "Twist, degrees, positive nose up (default 0)");
@@ -89,8 +108,7 @@ void add_export_command(CLI::App& app) {
       ->expected(3);
   cmd->add_option("--tolerance", a->tolerance,
                   "Largest deviation of the B-spline from the section, fraction of the chord "
-                  "(default 1e-5)")
-      ->check(positive());
+                  "(default 1e-5)");
   cmd->add_option("--degree", a->degree, "B-spline degree, 3 (default) to 7");
   cmd->add_flag("--polyline", a->polyline, "Straight segments through the section points");
   cmd->add_flag("--close-te", a->close_te,

@@ -6,9 +6,10 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 
-#include "app/cli_checks.h"
 #include "app/commands.h"
 #include "common/error.h"
+#include "common/number_text.h"
+#include "common/rule_check.h"
 #include "flight/flight_conditions.h"
 
 namespace fulmar::app {
@@ -48,7 +49,33 @@ void print_text(const CruiseConditions& c, const std::optional<StallConditions>&
   }
 }
 
+// Each option by the rule of src/flight that decides it (Airplane::Validate, the speed and factor
+// checks of cruise_conditions and stall_conditions, standard_atmosphere's range); the error names
+// the option.
+void check_flight_args(const FlightArgs& a) {
+  auto check = [](const char* option, double v, auto&& rule) {
+    check_at(option, general_text(v, 10), [&] { rule(v); });
+  };
+  const Airplane unit{1, 1, 1};
+  check("--mass", a.mass, [](double v) { Airplane{v, 1, 1}.Validate(); });
+  check("--wing-area", a.wing_area, [](double v) { Airplane{1, v, 1}.Validate(); });
+  check("--chord", a.chord, [](double v) { Airplane{1, 1, v}.Validate(); });
+  check("--speed", a.speed, [&](double v) { cruise_conditions(unit, v, 0.0); });
+  check("--altitude", a.altitude, [](double v) { standard_atmosphere(v); });
+  check("--temperature-offset", a.temperature_offset,
+        [&](double v) { standard_atmosphere(a.altitude, v); });
+  if (a.stall_speed)
+    check("--stall-speed", *a.stall_speed, [&](double v) { stall_conditions(unit, v, 0.0); });
+  if (a.stall_altitude) {
+    check("--stall-altitude", *a.stall_altitude,
+          [&](double v) { standard_atmosphere(v, a.temperature_offset); });
+  }
+  check("--wing-to-section", a.wing_to_section,
+        [&](double v) { stall_conditions(unit, 1.0, 0.0, v); });
+}
+
 void run_flight(const FlightArgs& a) {
+  check_flight_args(a);
   const Airplane airplane{a.mass, a.wing_area, a.chord};
   const CruiseConditions c = cruise_conditions(airplane, a.speed, a.altitude, a.temperature_offset);
   std::optional<StallConditions> s;
@@ -97,32 +124,23 @@ void add_flight_command(CLI::App& app) {
       "the cruise lift coefficient from the lift equation (lift = weight), Reynolds and Mach "
       "numbers; with a stall speed, the section cl_max that speed needs.\n\n" +
           std::string(kCaution));
-  cmd->add_option("--mass", args->mass, "Airplane mass at the flight point, kg")
-      ->required()
-      ->check(positive());
-  cmd->add_option("--wing-area", args->wing_area, "Wing reference area, m^2")
-      ->required()
-      ->check(positive());
+  cmd->add_option("--mass", args->mass, "Airplane mass at the flight point, kg")->required();
+  cmd->add_option("--wing-area", args->wing_area, "Wing reference area, m^2")->required();
   cmd->add_option("--chord", args->chord, "Mean aerodynamic chord, m (for the Reynolds number)")
-      ->required()
-      ->check(positive());
-  cmd->add_option("--speed", args->speed, "Cruise true airspeed, m/s")
-      ->required()
-      ->check(positive());
-  cmd->add_option("--altitude", args->altitude, "Cruise pressure altitude, m (0 to 20000)")
-      ->required()
-      ->check(within(0.0, 20000.0));
+      ->required();
+  cmd->add_option("--speed", args->speed, "Cruise true airspeed, m/s")->required();
+  cmd->add_option("--altitude", args->altitude,
+                  "Cruise pressure altitude, m (the standard atmosphere: 0 to " +
+                      general_text(kAtmosphereCeiling) + ")")
+      ->required();
   cmd->add_option("--temperature-offset", args->temperature_offset,
                   "Temperature above the standard day, K (ISA+dT); applies to both points");
-  cmd->add_option("--stall-speed", args->stall_speed, "Stall speed to meet, m/s true airspeed")
-      ->check(positive());
+  cmd->add_option("--stall-speed", args->stall_speed, "Stall speed to meet, m/s true airspeed");
   cmd->add_option("--stall-altitude", args->stall_altitude,
-                  "Pressure altitude of the stall requirement, m (default 0)")
-      ->check(within(0.0, 20000.0));
+                  "Pressure altitude of the stall requirement, m (default 0)");
   cmd->add_option("--wing-to-section", args->wing_to_section,
                   "CL_max(wing) / cl_max(section), default 0.9 (clean high-aspect-ratio wing, "
-                  "Raymer, Aircraft Design: A Conceptual Approach)")
-      ->check(within(0.01, 1.2));
+                  "Raymer, Aircraft Design: A Conceptual Approach)");
   cmd->add_flag("--json", args->json, "Print one JSON object (SI units)");
   cmd->callback([args]() { run_flight(*args); });
 }

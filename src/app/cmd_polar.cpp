@@ -17,12 +17,17 @@
 #include "app/cli_checks.h"
 #include "app/commands.h"
 #include "app/section_options.h"
+#include "app/text_table.h"
 #include "common/atomic_file.h"
 #include "common/error.h"
+#include "common/number_text.h"
+#include "common/parallel_for.h"
+#include "common/rule_check.h"
 #include "geometry/panelling.h"
 #include "geometry/shape_source.h"
 #include "solvers/inviscid/panel_solver.h"
 #include "solvers/viscous/polar.h"
+#include "solvers/viscous/polar_csv.h"
 
 namespace fulmar::app {
 namespace {
@@ -35,13 +40,14 @@ struct PolarArgs {
   bool json = false;
 };
 
-// FROM:TO:STEP in degrees -> the angles FROM, FROM+STEP, ... up to TO (inclusive within 1e-9 of
-// a step). STEP may be negative when TO < FROM; at most 10001 angles.
-std::vector<double> parse_alpha_range(const std::string& text) {
-  auto bad = [&](const std::string& rule) {
-    return InputError("--alpha '" + text + "': " + rule +
-                      " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
-  };
+InputError bad_alpha(const std::string& text, const std::string& rule) {
+  return InputError("--alpha '" + text + "': " + rule +
+                    " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
+}
+
+// FROM:TO:STEP -> the three numbers (the syntax only).
+std::vector<double> alpha_numbers(const std::string& text) {
+  auto bad = [&](const std::string& rule) { return bad_alpha(text, rule); };
   std::vector<double> v;
   std::stringstream ss(text);
   std::string part;
@@ -57,6 +63,14 @@ std::vector<double> parse_alpha_range(const std::string& text) {
     v.push_back(x);
   }
   if (v.size() != 3 || text.back() == ':') throw bad("needs exactly three numbers");
+  return v;
+}
+
+// FROM:TO:STEP in degrees for potential flow -> the angles FROM, FROM+STEP, ... up to TO
+// (inclusive within 1e-9 of a step). STEP may be negative when TO < FROM; at most 10001 angles.
+std::vector<double> parse_alpha_range(const std::string& text) {
+  auto bad = [&](const std::string& rule) { return bad_alpha(text, rule); };
+  const std::vector<double> v = alpha_numbers(text);
   const double from = v[0], to = v[1], step = v[2];
   if (std::abs(from) > 90.0 || std::abs(to) > 90.0) throw bad("angles must be within -90..90");
   if (step == 0.0) throw bad("STEP must not be zero");
@@ -110,39 +124,54 @@ void run_inviscid(const PolarArgs& args) {
     std::cout << j.dump(2) << "\n";
     return;
   }
-  std::printf("%s: inviscid polar, %d panels%s\n", section.name.c_str(), a.panels,
-              a.mach_given ? (", Mach " + std::to_string(a.mach).substr(0, 5)).c_str() : "");
-  std::printf("  %9s %9s %9s %9s%s\n", "alpha", "cl", "cm", "cp_min",
-              a.mach_given ? "  critical" : "");
+  std::printf("%s - potential flow over %zu angles\n", section.name.c_str(), points.size());
+  std::printf("  flow       %s\n",
+              a.mach_given ? ("Mach " + fixed_text(a.mach, 3) + " (Karman-Tsien)").c_str()
+                           : "incompressible");
+  std::printf("  analysis   %d panels, no boundary layer\n\n", a.panels);
+  std::vector<TextColumn> columns = {
+      {"angle", "deg", 8}, {"loads", "cl", 8}, {"loads", "cm c/4", 8}, {"pressure", "Cp min", 8}};
+  if (a.mach_given) columns.push_back({"pressure", "sonic", 9, true});
+  TextTable table(columns);
   for (const auto& p : points) {
-    std::printf("  %9.3f %9.5f %9.5f %9.4f%s\n", p["alpha"].get<double>(), p["cl"].get<double>(),
-                p["cm"].get<double>(), p["cp_min"].get<double>(),
-                a.mach_given ? (p["critical_exceeded"].get<bool>() ? "  exceeded" : "  -") : "");
+    std::vector<std::string> row = {
+        fixed_text(p["alpha"].get<double>(), 2), fixed_text(p["cl"].get<double>(), 4),
+        fixed_text(p["cm"].get<double>(), 4), fixed_text(p["cp_min"].get<double>(), 3)};
+    if (a.mach_given) row.push_back(p["critical_exceeded"].get<bool>() ? "reached" : "below");
+    table.add_row(row);
   }
+  std::printf("%s", table.str().c_str());
 }
 
-// FROM:TO:STEP for a viscous polar: the angles are marched outward from zero lift and returned
-// increasing, so FROM <= TO and STEP > 0; within +-60 deg (the viscous solver's range).
+// FROM:TO:STEP for a viscous polar, by the rules of viscous::PolarOptions (the angles are marched
+// outward from zero lift and returned increasing).
 viscous::PolarOptions viscous_alpha_range(const std::string& text) {
-  const std::vector<double> alphas = parse_alpha_range(text);  // the shared syntax checks
-  std::vector<double> v;
-  std::stringstream ss(text);
-  std::string part;
-  while (std::getline(ss, part, ':')) v.push_back(std::stod(part));
+  const std::vector<double> v = alpha_numbers(text);
   viscous::PolarOptions o;
   o.alpha_from = v[0];
   o.alpha_to = v[1];
   o.alpha_step = v[2];
-  auto bad = [&](const std::string& rule) {
-    return InputError("--alpha '" + text + "': " + rule +
-                      " (expected FROM:TO:STEP in degrees, e.g. -4:12:0.5)");
-  };
-  if (o.alpha_from > o.alpha_to) throw bad("FROM must not exceed TO for a viscous polar");
-  if (o.alpha_step <= 0.0) throw bad("STEP must be positive for a viscous polar");
-  if (std::abs(o.alpha_from) > 60.0 || std::abs(o.alpha_to) > 60.0)
-    throw bad("angles must be within -60..60 for a viscous polar");
-  if (alphas.size() > 2001) throw bad("more than 2001 angles for a viscous polar");
-  o.Validate();
+  static const char* const kNames[] = {"alpha_from", "alpha_to", "alpha_step"};
+  static const char* const kParts[] = {"FROM", "TO", "STEP"};
+  try {
+    o.Validate();
+  } catch (const InputError& e) {
+    // The field the message is about (the first one it names) is FROM, TO or STEP.
+    std::string m = e.what();
+    int subject = -1;
+    std::size_t first = std::string::npos;
+    for (int k = 0; k < 3; ++k) {
+      const auto at = m.find(std::string(kNames[k]) + " =");
+      if (at < first) first = at, subject = k;
+    }
+    if (subject >= 0 && m.find("must") != std::string::npos)
+      m = kParts[subject] + std::string(" ") + stated_rule(m);
+    for (int k = 0; k < 3; ++k) {
+      for (auto at = m.find(kNames[k]); at != std::string::npos; at = m.find(kNames[k]))
+        m.replace(at, std::string(kNames[k]).size(), kParts[k]);
+    }
+    throw InputError("--alpha '" + text + "': " + m + " for a viscous polar");
+  }
   return o;
 }
 
@@ -166,29 +195,70 @@ nlohmann::json polar_json(const ReynoldsPolar& p) {
           {"summary", p.polar.summary.to_json()}};
 }
 
-// The CSV: one row per point (all Reynolds numbers, in the order given); numbers of points with
-// converged = 0 are the last iterate, not a solution.
-std::string polar_csv(const std::vector<ReynoldsPolar>& polars) {
-  std::ostringstream csv;
-  csv.precision(10);
-  csv << "re,mach,alpha,cl,cd,cd_friction,cd_pressure,cm,transition_upper,transition_lower,"
-         "converged,iterations\n";
+// The CSV (solvers/viscous/polar_csv.h): one row per point (all Reynolds numbers, in the order
+// given); numbers of points with converged = 0 are the last iterate, not a solution.
+std::string polar_csv(const std::vector<ReynoldsPolar>& polars, const std::string& section_name) {
+  std::vector<viscous::PolarCsvRow> rows;
   for (const ReynoldsPolar& p : polars) {
     for (const viscous::ViscousResult& r : p.polar.points) {
-      csv << p.options.reynolds << ',' << p.options.mach << ',' << r.alpha << ',' << r.cl << ','
-          << r.cd << ',' << r.cd_friction << ',' << r.cd_pressure << ',' << r.cm << ','
-          << r.transition_upper << ',' << r.transition_lower << ',' << (r.converged ? 1 : 0) << ','
-          << r.iterations << '\n';
+      rows.push_back(viscous::polar_csv_row(r, p.options.reynolds, p.options.mach));
+      rows.back().section = section_name;
     }
   }
-  return csv.str();
+  return viscous::polar_csv(rows);
 }
 
-std::string summary_value(const nlohmann::json& v, const char* format) {
-  if (v.is_null()) return "-";
-  char buf[64];
-  std::snprintf(buf, sizeof buf, format, v.get<double>());
-  return buf;
+// A summary value of the polar: "n/a" when the summary has none (null).
+std::string summary_value(const nlohmann::json& v, int decimals) {
+  return v.is_null() ? std::string(kNotAvailable) : fixed_text(v.get<double>(), decimals);
+}
+
+// fulmar's polar table: a block stating the conditions, the points grouped as angle | forces |
+// drag split | transition | status, and a footer with the summary.
+void print_polar_text(const std::string& name, int panels, const ReynoldsPolar& p) {
+  const viscous::ViscousOptions& o = p.options;
+  std::printf("%s - viscous polar\n", name.c_str());
+  std::printf("  flow         Reynolds number %s, Mach %s\n", general_text(o.reynolds, 4).c_str(),
+              fixed_text(o.mach, 3).c_str());
+  std::printf("  transition   %s\n", transition_words(o).c_str());
+  std::printf("  analysis     %d panels, %d solves in %.1f s\n\n", panels, p.polar.solves,
+              p.seconds);
+  TextTable table({{"angle", "deg", 7},
+                   {"forces", "cl", 8},
+                   {"forces", "cd", 8},
+                   {"forces", "cm c/4", 8},
+                   {"drag split", "friction", 8},
+                   {"drag split", "pressure", 8},
+                   {"transition x/c", "upper", 6},
+                   {"transition x/c", "lower", 6},
+                   {"status", "", 13, true}});
+  int converged = 0;
+  for (const viscous::ViscousResult& r : p.polar.points) {
+    converged += r.converged;
+    table.add_row({fixed_text(r.alpha, 2), fixed_text(r.cl, 4), fixed_text(r.cd, 5),
+                   fixed_text(r.cm, 4), fixed_text(r.cd_friction, 5), fixed_text(r.cd_pressure, 5),
+                   fixed_text(r.transition_upper, 3), fixed_text(r.transition_lower, 3),
+                   r.converged ? "converged" : "NOT converged"});
+  }
+  std::printf("%s\n", table.str().c_str());
+  const nlohmann::json s = p.polar.summary.to_json();
+  const bool lower_bound = p.polar.summary.has_cl_max && !p.polar.summary.cl_max_bracketed;
+  std::printf("  highest lift   cl_max %s%s at %s deg\n", summary_value(s["cl_max"], 4).c_str(),
+              lower_bound ? " (a lower bound)" : "", summary_value(s["alpha_cl_max"], 2).c_str());
+  std::printf("  least drag     cd_min %s at cl %s", summary_value(s["cd_min"], 5).c_str(),
+              summary_value(s["cl_at_cd_min"], 4).c_str());
+  if (!s["bucket"].is_null()) {
+    std::printf("; low-drag range cl %s to %s",
+                fixed_text(s["bucket"]["cl_lower"].get<double>(), 3).c_str(),
+                fixed_text(s["bucket"]["cl_upper"].get<double>(), 3).c_str());
+  }
+  std::printf("\n  linear range   zero lift at %s deg, slope %s per deg, cm %s, centre x/c %s\n",
+              summary_value(s["alpha_zero_lift"], 3).c_str(),
+              summary_value(s["lift_slope_per_deg"], 4).c_str(),
+              summary_value(s["cm_zero_lift"], 4).c_str(), summary_value(s["x_ac"], 4).c_str());
+  std::printf("  converged      %d of %zu angles\n", converged, p.polar.points.size());
+  if (!p.polar.summary.note.empty())
+    std::printf("  note           %s\n", p.polar.summary.note.c_str());
 }
 
 void run_viscous(const PolarArgs& args) {
@@ -201,29 +271,13 @@ void run_viscous(const PolarArgs& args) {
   const Points nodes = section_nodes(a, section);
 
   // One solver and one thread per Reynolds number, at most as many threads as cores.
-  const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
-  const std::size_t workers = std::min<std::size_t>(polars.size(), cores);
-  std::atomic<std::size_t> next{0};
-  std::vector<std::exception_ptr> errors(polars.size());
-  auto work = [&]() {
-    for (std::size_t i = next++; i < polars.size(); i = next++) {
-      try {
-        const auto t0 = std::chrono::steady_clock::now();
-        const viscous::ViscousSolver solver(nodes, polars[i].options);
-        polars[i].polar = viscous::sweep_polar(solver, polar_options);
-        polars[i].seconds =
-            std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-      } catch (...) {
-        errors[i] = std::current_exception();
-      }
-    }
-  };
-  std::vector<std::thread> threads;
-  for (std::size_t t = 1; t < workers; ++t) threads.emplace_back(work);
-  work();
-  for (std::thread& t : threads) t.join();
-  for (const std::exception_ptr& e : errors)
-    if (e) std::rethrow_exception(e);
+  parallel_for(polars.size(), 0, [&](std::size_t i) {
+    const auto t0 = std::chrono::steady_clock::now();
+    const viscous::ViscousSolver solver(nodes, polars[i].options);
+    polars[i].polar = viscous::sweep_polar(solver, polar_options);
+    polars[i].seconds =
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  });
 
   for (const ReynoldsPolar& p : polars) {
     int failed = 0;
@@ -235,7 +289,8 @@ void run_viscous(const PolarArgs& args) {
                    "solution)\n";
     }
   }
-  if (!args.output_csv.empty()) write_file_atomically(args.output_csv, polar_csv(polars));
+  if (!args.output_csv.empty())
+    write_file_atomically(args.output_csv, polar_csv(polars, section.name));
 
   if (args.json) {
     nlohmann::json list = nlohmann::json::array();
@@ -249,34 +304,9 @@ void run_viscous(const PolarArgs& args) {
     std::cout << j.dump(2) << "\n";
     return;
   }
-  for (const ReynoldsPolar& p : polars) {
-    std::printf(
-        "%s: viscous polar, Re %.4g, Mach %.3g, N_crit %.3g, %d panels (%d solves, %.1f s)\n",
-        section.name.c_str(), p.options.reynolds, p.options.mach, p.options.n_crit, a.panels,
-        p.polar.solves, p.seconds);
-    std::printf("  %8s %9s %9s %9s %9s %7s %7s  %s\n", "alpha", "cl", "cd", "cd_fric", "cm",
-                "xtr_up", "xtr_lo", "converged");
-    for (const viscous::ViscousResult& r : p.polar.points) {
-      std::printf("  %8.3f %9.5f %9.6f %9.6f %9.5f %7.4f %7.4f  %s\n", r.alpha, r.cl, r.cd,
-                  r.cd_friction, r.cm, r.transition_upper, r.transition_lower,
-                  r.converged ? "yes" : "NO");
-    }
-    const nlohmann::json s = p.polar.summary.to_json();
-    const bool lower_bound = p.polar.summary.has_cl_max && !p.polar.summary.cl_max_bracketed;
-    std::printf(
-        "  cl_max %s%s at alpha %s; zero lift at alpha %s, slope %s /deg, cm0 %s, x_ac %s\n",
-        summary_value(s["cl_max"], "%.4f").c_str(), lower_bound ? " (lower bound)" : "",
-        summary_value(s["alpha_cl_max"], "%.2f").c_str(),
-        summary_value(s["alpha_zero_lift"], "%.3f").c_str(),
-        summary_value(s["lift_slope_per_deg"], "%.4f").c_str(),
-        summary_value(s["cm_zero_lift"], "%.4f").c_str(), summary_value(s["x_ac"], "%.4f").c_str());
-    std::printf("  cd_min %s at cl %s", summary_value(s["cd_min"], "%.6f").c_str(),
-                summary_value(s["cl_at_cd_min"], "%.4f").c_str());
-    if (!s["bucket"].is_null()) {
-      std::printf("; low-drag range cl %.3f to %.3f", s["bucket"]["cl_lower"].get<double>(),
-                  s["bucket"]["cl_upper"].get<double>());
-    }
-    std::printf("\n  note: %s\n", p.polar.summary.note.c_str());
+  for (std::size_t i = 0; i < polars.size(); ++i) {
+    if (i > 0) std::printf("\n");
+    print_polar_text(section.name, a.panels, polars[i]);
   }
 }
 

@@ -49,7 +49,7 @@ std::string to_string(Surface s) {
   return s == Surface::kUpper ? "upper" : "lower";
 }
 
-double cst_y(const CstShape& shape, Surface surface, double x) {
+double cst_shape_function(const CstShape& shape, Surface surface, double x) {
   const Eigen::VectorXd& a = coefficients(shape, surface);
   check_size(a);
   x = std::max(x, 0.0);
@@ -58,8 +58,13 @@ double cst_y(const CstShape& shape, Surface surface, double x) {
   bernstein(n, x, b);
   double sum = 0;
   for (int i = 0; i <= n; ++i) sum += a[i] * b[i];
+  return sum;
+}
+
+double cst_y(const CstShape& shape, Surface surface, double x) {
   const double te = surface == Surface::kUpper ? shape.te_upper : shape.te_lower;
-  return class_function(x) * sum + x * te;
+  x = std::max(x, 0.0);
+  return class_function(x) * cst_shape_function(shape, surface, x) + x * te;
 }
 
 double cst_upper_y(const CstShape& shape, double x) {

@@ -27,6 +27,10 @@ double cst_y(const CstShape& shape, Surface surface, double x);
 double cst_upper_y(const CstShape& shape, double x);
 double cst_lower_y(const CstShape& shape, double x);
 
+// The shape function S(x) = sum_i a_i B_{i,n}(x) of a surface (y without the class function and
+// the trailing-edge term). x is clamped to >= 0; valid for x in [0, 1].
+double cst_shape_function(const CstShape& shape, Surface surface, double x);
+
 // Surface slope dy/dx at x in (0, 1]; infinite at x = 0 (the round nose).
 double cst_slope(const CstShape& shape, Surface surface, double x);
 
