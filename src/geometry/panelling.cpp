@@ -156,13 +156,18 @@ void panel_nodes(const Section& section, const PanellingOptions& o, Points& node
   };
   nodes.row(0) = section.points.row(0);
   const Grading g_upper(o.te_grading, n_upper), g_lower(o.te_grading, n_lower);
-  for (int k = 1; k < n_upper; ++k) place(k, w_upper * g_upper(static_cast<double>(k) / n_upper));
+  // Without grading the original expressions, so that the default nodes stay bit-identical.
+  const bool graded = o.te_grading > 0;
+  for (int k = 1; k < n_upper; ++k) {
+    place(k, graded ? w_upper * g_upper(static_cast<double>(k) / n_upper) : w_upper * k / n_upper);
+  }
   nodes(n_upper, 0) = le.x;
   nodes(n_upper, 1) = le.y;
   j = std::max<std::size_t>(le_sample, 1);
   for (int k = 1; k < n_lower; ++k) {
     const double t = static_cast<double>(n_lower - k) / n_lower;  // 0 at the trailing edge
-    place(n_upper + k, w_upper + (w_total - w_upper) * (1.0 - g_lower(t)));
+    place(n_upper + k, graded ? w_upper + (w_total - w_upper) * (1.0 - g_lower(t))
+                              : w_upper + (w_total - w_upper) * k / n_lower);
   }
   nodes.row(o.panels) = section.points.row(section.points.rows() - 1);
 }
