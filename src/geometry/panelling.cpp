@@ -21,6 +21,10 @@ void PanellingOptions::Validate() const {
     throw InputError("panelling.te_weight = " + std::to_string(te_weight) +
                      ": must be finite and >= 0");
   }
+  if (!(te_grading >= 0 && te_grading <= 0.5)) {
+    throw InputError("panelling.te_grading = " + std::to_string(te_grading) +
+                     ": must be in [0, 0.5]");
+  }
   if (!(te_extent > 0) || !std::isfinite(te_extent)) {
     throw InputError("panelling.te_extent = " + std::to_string(te_extent) +
                      ": must be finite and > 0");
@@ -65,6 +69,32 @@ void sample_side(Workspace& ws, double from, double to, const PanellingOptions& 
   ws.s.push_back(to);
   ws.w.push_back(density(to, i1));
 }
+
+// Fraction G(t) of a surface's density integral at which its node t = k / n sits, t = 0 at the
+// trailing edge (PanellingOptions::te_grading): G' proportional to min(sqrt(t^2 + e^2), c),
+// e = kGradingStart / n, integrated in closed form. Off (G(t) = t) when c <= e, i.e. when the
+// graded zone would hold fewer than kGradingStart panels.
+constexpr double kGradingStart = 4.0;
+
+class Grading {
+ public:
+  Grading(double c, int n) : c_(c), e_(kGradingStart / n) {
+    on_ = c_ > e_;
+    if (!on_) return;
+    t_star_ = std::sqrt(c_ * c_ - e_ * e_);  // where sqrt(t^2 + e^2) reaches c
+    total_ = raw(1.0);
+  }
+  double operator()(double t) const { return on_ ? raw(t) / total_ : t; }
+
+ private:
+  // Integral from 0 to t of min(sqrt(u^2 + e^2), c).
+  double raw(double t) const {
+    auto f = [&](double u) { return 0.5 * (u * std::hypot(u, e_) + e_ * e_ * std::asinh(u / e_)); };
+    return t <= t_star_ ? f(t) : f(t_star_) + c_ * (t - t_star_);
+  }
+  double c_, e_, t_star_ = 0, total_ = 1;
+  bool on_ = false;
+};
 
 }  // namespace
 
@@ -125,12 +155,19 @@ void panel_nodes(const Section& section, const PanellingOptions& o, Points& node
     nodes(row, 1) = p.y;
   };
   nodes.row(0) = section.points.row(0);
-  for (int k = 1; k < n_upper; ++k) place(k, w_upper * k / n_upper);
+  const Grading g_upper(o.te_grading, n_upper), g_lower(o.te_grading, n_lower);
+  // Without grading the original expressions, so that the default nodes stay bit-identical.
+  const bool graded = o.te_grading > 0;
+  for (int k = 1; k < n_upper; ++k) {
+    place(k, graded ? w_upper * g_upper(static_cast<double>(k) / n_upper) : w_upper * k / n_upper);
+  }
   nodes(n_upper, 0) = le.x;
   nodes(n_upper, 1) = le.y;
   j = std::max<std::size_t>(le_sample, 1);
   for (int k = 1; k < n_lower; ++k) {
-    place(n_upper + k, w_upper + (w_total - w_upper) * k / n_lower);
+    const double t = static_cast<double>(n_lower - k) / n_lower;  // 0 at the trailing edge
+    place(n_upper + k, graded ? w_upper + (w_total - w_upper) * (1.0 - g_lower(t))
+                              : w_upper + (w_total - w_upper) * k / n_lower);
   }
   nodes.row(o.panels) = section.points.row(section.points.rows() - 1);
 }

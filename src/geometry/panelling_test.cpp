@@ -44,10 +44,30 @@ TEST(Panelling, ClusteredAtBothEndsAndSmooth) {
   const double le_panel = (n.row(80) - n.row(81)).norm();
   EXPECT_LT(le_panel, 0.25 * longest);  // nose panels several times shorter
   EXPECT_LT(te_panel, 0.75 * longest);  // trailing-edge panels shorter too
-  EXPECT_LT(le_panel, te_panel);
+  EXPECT_LT(le_panel, te_panel);        // without te_grading (the default)
   // Neighbouring panels differ by less than 30 % (measured 13 %): panel methods lose accuracy
   // with abrupt changes of panel length (common practice).
   EXPECT_LT(ratio, 1.3);
+}
+
+TEST(Panelling, TrailingEdgePanelShrinksLikeTheSquareOfThePanelCount) {
+  // te_grading's purpose (see panelling.h): the trailing-edge panel ~ 1 / panels^2, so it falls
+  // about 4x per doubling, while a nose panel, set by the curvature density, falls about 2x.
+  // Bounds: 3.5x and 1.7-2.3x (the shares of the two surfaces and the graded zone's own
+  // normalisation move a little with the count). Without the grading both ratios are about 2.
+  PanellingOptions o;
+  o.te_grading = 0.3;
+  double te[2], le[2];
+  for (int i = 0; i < 2; ++i) {
+    o.panels = 160 << i;
+    const Points n = panel_nodes(naca_section("0012"), o);
+    te[i] = (n.row(1) - n.row(0)).norm();
+    const Eigen::Index m = o.panels / 2;
+    le[i] = (n.row(m) - n.row(m + 1)).norm();
+  }
+  EXPECT_GT(te[0] / te[1], 3.5);
+  EXPECT_GT(le[0] / le[1], 1.7);
+  EXPECT_LT(le[0] / le[1], 2.3);
 }
 
 TEST(Panelling, IndependentOfTheInputPointCount) {
@@ -82,6 +102,9 @@ TEST(Panelling, OptionsAreValidated) {
   EXPECT_THROW(o.Validate(), InputError);
   o = {};
   o.te_extent = 0;
+  EXPECT_THROW(o.Validate(), InputError);
+  o = {};
+  o.te_grading = 0.6;
   EXPECT_THROW(o.Validate(), InputError);
   o = {};
   o.curvature_weight = -1;
