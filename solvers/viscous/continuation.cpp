@@ -3,25 +3,16 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <sstream>
 
 #include "common/error.h"
+#include "common/number_text.h"
+#include "common/rule_check.h"
 
 namespace fulmar::viscous {
 namespace {
 
 void require(bool ok, const char* field, double value, const std::string& rule) {
-  if (ok) return;
-  std::ostringstream msg;
-  msg << "continuation options: " << field << " = " << value << " " << rule;
-  throw InputError(msg.str());
-}
-
-std::string fmt(double v, int precision = 4) {
-  std::ostringstream s;
-  s.precision(precision);
-  s << v;
-  return s.str();
+  require_rule(ok, std::string("continuation options: ") + field, value, rule);
 }
 
 }  // namespace
@@ -32,7 +23,7 @@ void ContinuationOptions::Validate() const {
   require(std::isfinite(alpha_to) && std::abs(alpha_to) <= 60.0, "alpha_to", alpha_to,
           "must be an angle within -60..60 deg");
   require(alpha_to >= alpha_from, "alpha_to", alpha_to,
-          "must not be below alpha_from = " + fmt(alpha_from));
+          "must not be below alpha_from = " + general_text(alpha_from, 4));
   require(std::isfinite(alpha_step) && alpha_step > 0.0, "alpha_step", alpha_step,
           "must be a positive number of degrees");
   require((alpha_to - alpha_from) / alpha_step <= 2000.0, "alpha_step", alpha_step,
@@ -44,7 +35,8 @@ void ContinuationOptions::Validate() const {
   require(stop_after_failures >= 0, "stop_after_failures", stop_after_failures,
           "must be >= 0 (0: no stop after failures)");
   require(creep_step == 0.0 || (creep_step > 0.0 && creep_step < alpha_step), "creep_step",
-          creep_step, "must be 0 (no creep) or between 0 and alpha_step = " + fmt(alpha_step));
+          creep_step,
+          "must be 0 (no creep) or between 0 and alpha_step = " + general_text(alpha_step, 4));
 }
 
 std::vector<double> ContinuationOptions::angles() const {
@@ -88,7 +80,8 @@ ViscousResult sub_step_march(const PointSolver& solve, double target, ViscousRes
   LiftPoint prior = before;
   double h = 0.5 * (target - anchor.alpha);
   ViscousResult t;
-  t.reason = "sub-steps from " + fmt(anchor.alpha) + " deg did not reach " + fmt(target) + " deg";
+  t.reason = "sub-steps from " + general_text(anchor.alpha, 4) + " deg did not reach " +
+             general_text(target, 4) + " deg";
   while (std::abs(h) >= kMinSubStep * (1.0 - 1e-9)) {
     double a = cur.alpha + h;
     if ((target - a) * dir < 1e-9) a = target;
@@ -156,15 +149,15 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
       if (options.keep_unconfirmed_jump) return r;
       t.status = SolveStatus::kFailed;
       t.alpha = target;
-      t.reason = "the lift jumped " + fmt(jump, 3) + " off the line through the two angles " +
-                 "before it and " +
+      t.reason = "the lift jumped " + general_text(jump, 3) +
+                 " off the line through the two angles " + "before it and " +
                  (sub_step ? "sub-steps did not reach it again (" + t.reason + ")"
                            : std::string("was not checked"));
       return t;
     }
     ViscousResult cold = call(target, nullptr);
     if (cold.converged()) return cold;
-    r.reason += sub_step ? "; sub-steps down to " + fmt(kMinSubStep, 2) +
+    r.reason += sub_step ? "; sub-steps down to " + general_text(kMinSubStep, 2) +
                                " deg from the last converged angle and a cold start also failed"
                          : "; cold start also failed";
     return r;
@@ -246,11 +239,11 @@ Continuation march(const PointSolver& solve, const PointSolver& attempt, double 
       }
     }
     if (dir > 0 && out.stop != Continuation::Stop::kEnd) {
-      const std::string why = out.stop == Continuation::Stop::kStall
-                                  ? "the march stopped at the stall (alpha " + fmt(grid[i]) + ")"
-                                  : "the march stopped after " +
-                                        std::to_string(options.stop_after_failures) +
-                                        " failed angles in a row";
+      const std::string why =
+          out.stop == Continuation::Stop::kStall
+              ? "the march stopped at the stall (alpha " + general_text(grid[i], 4) + ")"
+              : "the march stopped after " + std::to_string(options.stop_after_failures) +
+                    " failed angles in a row";
       for (int j = i + 1; j < n; ++j) {
         out.points[j].alpha = grid[j];
         out.points[j].reason = "not solved: " + why;
@@ -403,7 +396,7 @@ LiftMaximum refine_lift_maximum(const std::vector<ViscousResult>& known, const P
   out.cl_max = best_cl;
   out.alpha = best_alpha;
   out.bracket = b - a;
-  out.note = "refined by golden-section search to a " + fmt(b - a, 2) + " deg bracket (" +
+  out.note = "refined by golden-section search to a " + general_text(b - a, 2) + " deg bracket (" +
              std::to_string(solves) + " solves";
   if (failures > 0) out.note += ", " + std::to_string(failures) + " of them not converged";
   out.note += ")";

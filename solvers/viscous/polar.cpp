@@ -5,25 +5,16 @@
 #include <cmath>
 #include <limits>
 #include <numbers>
-#include <sstream>
 
 #include "common/error.h"
+#include "common/number_text.h"
+#include "common/rule_check.h"
 
 namespace fulmar::viscous {
 namespace {
 
 void require(bool ok, const char* field, double value, const std::string& rule) {
-  if (ok) return;
-  std::ostringstream msg;
-  msg << "polar options: " << field << " = " << value << " " << rule;
-  throw InputError(msg.str());
-}
-
-std::string fmt(double v, int precision = 4) {
-  std::ostringstream s;
-  s.precision(precision);
-  s << v;
-  return s.str();
+  require_rule(ok, std::string("polar options: ") + field, value, rule);
 }
 
 void add_note(std::string& note, const std::string& text) {
@@ -74,7 +65,7 @@ void PolarOptions::Validate() const {
   require(std::isfinite(alpha_to) && std::abs(alpha_to) <= 60.0, "alpha_to", alpha_to,
           "must be an angle within -60..60 deg");
   require(alpha_to >= alpha_from, "alpha_to", alpha_to,
-          "must not be below alpha_from = " + fmt(alpha_from));
+          "must not be below alpha_from = " + general_text(alpha_from, 4));
   require(std::isfinite(alpha_step) && alpha_step > 0.0, "alpha_step", alpha_step,
           "must be a positive number of degrees");
   require((alpha_to - alpha_from) / alpha_step <= 2000.0, "alpha_step", alpha_step,
@@ -144,8 +135,8 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
     const int stall = stall_index(cl, kStallLiftDrop, 1);
     if (stall >= 0) {
       if (stall + 1 < nl)
-        add_note(s.note, "stall: at alpha " + fmt(lift[stall]->alpha) + " cl is more than " +
-                             fmt(kStallLiftDrop) +
+        add_note(s.note, "stall: at alpha " + general_text(lift[stall]->alpha, 4) +
+                             " cl is more than " + general_text(kStallLiftDrop, 4) +
                              " below its maximum; the points beyond are post-stall and not "
                              "searched for cl_max");
       nl = stall + 1;
@@ -158,20 +149,20 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
   s.alpha_cl_max = lift[k]->alpha;
   if (k == 0 && nl > 1) {
     add_note(s.note, "cl falls over the whole range: the maximum lies at or below alpha " +
-                         fmt(lift[0]->alpha));
+                         general_text(lift[0]->alpha, 4));
   } else if (k < nl - 1) {
     s.has_cl_max = true;
     s.cl_max_bracketed = true;
-    add_note(s.note, "cl_max bracketed: cl falls after alpha " + fmt(lift[k]->alpha) + " (at " +
-                         fmt(lift[k + 1]->alpha) + ")");
+    add_note(s.note, "cl_max bracketed: cl falls after alpha " + general_text(lift[k]->alpha, 4) +
+                         " (at " + general_text(lift[k + 1]->alpha, 4) + ")");
   } else if (last_alpha_any > lift[k]->alpha) {
     s.has_cl_max = true;
-    add_note(s.note, "cl_max at the last converged angle " + fmt(lift[k]->alpha) +
+    add_note(s.note, "cl_max at the last converged angle " + general_text(lift[k]->alpha, 4) +
                          ": beyond it the solutions did not converge (stall and solver failure "
                          "not told apart), so cl_max is a lower bound");
   } else {
-    add_note(s.note, "cl still rises at the end of the range (alpha " + fmt(lift[k]->alpha) +
-                         "): no cl_max, extend the range");
+    add_note(s.note, "cl still rises at the end of the range (alpha " +
+                         general_text(lift[k]->alpha, 4) + "): no cl_max, extend the range");
   }
 
   // Zero lift: the upward crossing nearest alpha = 0.
@@ -204,8 +195,8 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
     const double t = (0.0 - a.cl) / (b.cl - a.cl);
     s.has_zero_lift = true;
     if (extrapolated) {
-      add_note(s.note,
-               "zero-lift angle extrapolated from alpha " + fmt(a.alpha) + " and " + fmt(b.alpha));
+      add_note(s.note, "zero-lift angle extrapolated from alpha " + general_text(a.alpha, 4) +
+                           " and " + general_text(b.alpha, 4));
     }
     s.alpha_zero_lift = a.alpha + t * (b.alpha - a.alpha);
     s.cm_zero_lift = a.cm + t * (b.cm - a.cm);
@@ -260,8 +251,8 @@ PolarSummary summarize_polar(const std::vector<ViscousResult>& points,
       }
     }
   } else {
-    add_note(s.note, "lowest cd at the end of the converged range (alpha " + fmt(c[m]->alpha) +
-                         "): cd_min may lie outside it");
+    add_note(s.note, "lowest cd at the end of the converged range (alpha " +
+                         general_text(c[m]->alpha, 4) + "): cd_min may lie outside it");
   }
 
   // Low-drag range.

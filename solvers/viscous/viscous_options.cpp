@@ -1,19 +1,15 @@
 // The rules of the viscous options.
 #include "solvers/viscous/viscous_options.h"
 
-#include <sstream>
-
 #include "common/error.h"
+#include "common/rule_check.h"
 
 namespace fulmar::viscous {
 
 namespace {
 
 void require(bool ok, const std::string& field, double value, const std::string& rule) {
-  if (ok) return;
-  std::ostringstream msg;
-  msg << "viscous option " << field << " = " << value << ": " << rule;
-  throw InputError(msg.str());
+  require_rule(ok, "viscous option " + field, value, rule);
 }
 
 }  // namespace

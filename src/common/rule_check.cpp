@@ -1,10 +1,16 @@
 #include "common/rule_check.h"
 
+#include "common/number_text.h"
+
 namespace fulmar {
 
 std::string stated_rule(const std::string& message) {
   const auto at = message.find("must");
   return at == std::string::npos ? message : message.substr(at);
+}
+
+void require_rule(bool ok, const std::string& subject, double value, const std::string& rule) {
+  if (!ok) throw InputError(subject + " = " + general_text(value) + ": " + rule);
 }
 
 std::string placed_rule(const std::string& place, const std::string& value,

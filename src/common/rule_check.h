@@ -13,6 +13,10 @@
 
 namespace fulmar {
 
+// For Validate(): throws InputError "<subject> = <value>: <rule>" (the value as general_text)
+// unless `ok`. `subject` names the options and the field ("polar options: alpha_step").
+void require_rule(bool ok, const std::string& subject, double value, const std::string& rule);
+
 // The rule a Validate() message states: the text from the first "must" on, or the whole message.
 std::string stated_rule(const std::string& message);
 

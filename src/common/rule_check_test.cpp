@@ -25,6 +25,25 @@ TEST(RuleCheck, TheRuleIsTheMessageFromMustOn) {
             "--altitude: altitude -5 m is outside the range 0 to 20000 m");
 }
 
+// The one message form of every Validate(): subject, value (6 significant digits, "n/a" when not
+// finite, never "nan"), rule; nothing is thrown when the rule holds.
+TEST(RuleCheck, RequireRuleNamesSubjectValueAndRule) {
+  EXPECT_NO_THROW(require_rule(true, "polar options: alpha_step", 0.0, "must be > 0"));
+  try {
+    require_rule(false, "polar options: alpha_step", 0.0, "must be > 0");
+    FAIL() << "no error";
+  } catch (const InputError& e) {
+    EXPECT_STREQ(e.what(), "polar options: alpha_step = 0: must be > 0");
+    EXPECT_EQ(stated_rule(e.what()), "must be > 0");
+  }
+  try {
+    require_rule(false, "viscous option n_crit", std::nan(""), "must be in [0.5, 20]");
+    FAIL() << "no error";
+  } catch (const InputError& e) {
+    EXPECT_STREQ(e.what(), "viscous option n_crit = n/a: must be in [0.5, 20]");
+  }
+}
+
 TEST(RuleCheck, ReWordsTheErrorWithThePlaceAndTheValue) {
   Options o;
   o.n = 0.3;
