@@ -10,20 +10,27 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <numbers>
 #include <vector>
 
-#include "solvers/inviscid/karman_trefftz_section.h"
+#include "solvers/inviscid/testing/karman_trefftz.h"
+#include "solvers/inviscid/testing/trailing_edge_gap.h"
 
 namespace fulmar {
 namespace {
 
-using testing::deg;
 using testing::KarmanTrefftz;
-using testing::kPi;
 using testing::opened;
 
-// The cambered Karman-Trefftz section of panel_solver_test.cpp: 12 % thick, 4 % camber.
+constexpr double kPi = std::numbers::pi;
+double deg(double d) {
+  return d * kPi / 180.0;
+}
+
+// The cambered Karman-Trefftz section of panel_solver_test.cpp: 12 % thick, 4 % camber, unit
+// chord. kGap: the trailing-edge gap of its open variant, 0.5 % chord.
 const KarmanTrefftz kCambered{0.10, 0.08, 10.0};
+constexpr double kGap = 0.005;
 
 // A circle of radius a about (a, 0) as a "section" with a sharp trailing edge at (2a, 0).
 Points circle_nodes(int panels, double a) {
@@ -117,25 +124,25 @@ void check_mass_influence(const Points& nodes, double alpha, bool precomputed = 
 }
 
 TEST(InviscidCoupling, MassInfluenceMatchesResolveSharpEdge) {
-  check_mass_influence(kCambered.nodes(120), deg(4.0));
+  check_mass_influence(kCambered.panel_nodes(120), deg(4.0));
 }
 
 TEST(InviscidCoupling, MassInfluenceMatchesResolveOpenEdge) {
-  check_mass_influence(opened(kCambered.nodes(120), 0.02), deg(4.0));
+  check_mass_influence(opened(kCambered.panel_nodes(120), kGap), deg(4.0));
 }
 
 // The precomputed surface part (one per shape) serves every angle.
 TEST(InviscidCoupling, PrecomputedSurfaceSourcesMatchResolve) {
   for (double a : {-6.0, 4.0, 12.0}) {
-    check_mass_influence(kCambered.nodes(120), deg(a), true);
-    check_mass_influence(opened(kCambered.nodes(120), 0.02), deg(a), true);
+    check_mass_influence(kCambered.panel_nodes(120), deg(a), true);
+    check_mass_influence(opened(kCambered.panel_nodes(120), kGap), deg(a), true);
   }
 }
 
 // Same model with and without the precomputed part: one computation reordered, so equal to
 // round-off (1e-12 of the largest entry; the factored system's rcond ~ 1e-7 amplifies 1e-16).
 TEST(InviscidCoupling, PrecomputedSurfaceSourcesGiveTheSameModel) {
-  const InviscidSolver solver(opened(kCambered.nodes(120), 0.02));
+  const InviscidSolver solver(opened(kCambered.panel_nodes(120), kGap));
   const SurfaceSourceResponse surface = solver.surface_source_response();
   for (double a : {-6.0, 4.0}) {
     const CouplingModel full = solver.coupling_model(deg(a));
@@ -152,7 +159,7 @@ TEST(InviscidCoupling, PrecomputedSurfaceSourcesGiveTheSameModel) {
 // least the requested length, and far behind the section the speed tends to the free stream
 // (the section's disturbance decays like chord / distance: within 10 % one chord behind).
 TEST(InviscidCoupling, WakeIsAStreamline) {
-  const InviscidSolver solver(kCambered.nodes(160));
+  const InviscidSolver solver(kCambered.panel_nodes(160));
   const double alpha = deg(5.0);
   const CouplingModel m = solver.coupling_model(alpha);
   const Points& w = m.wake;

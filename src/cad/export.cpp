@@ -26,11 +26,8 @@ std::string to_string(CadFormat format) {
 CadFormat cad_format_from_string(const std::string& text, const std::string& what) {
   // The message of the option's rule ("must be one of"), not EnumNames' "unknown": the case
   // file and the command line re-word it by its rule.
-  try {
-    return kFormats.parse(text, what, "format");
-  } catch (const InputError&) {
-    throw InputError(what + " = '" + text + "': must be one of " + kFormats.list());
-  }
+  if (const auto value = kFormats.find(text)) return *value;
+  throw InputError(what + " = '" + text + "': must be one of " + kFormats.list());
 }
 
 void ExportOptions::Validate() const {

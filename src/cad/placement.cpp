@@ -23,11 +23,8 @@ std::string to_string(LengthUnit unit) {
 LengthUnit length_unit_from_string(const std::string& text, const std::string& what) {
   // The message of the option's rule ("must be one of"), not EnumNames' "unknown": the case
   // file and the command line re-word it by its rule.
-  try {
-    return kUnits.parse(text, what, "unit");
-  } catch (const InputError&) {
-    throw InputError(what + " = '" + text + "': must be one of " + kUnits.list());
-  }
+  if (const auto value = kUnits.find(text)) return *value;
+  throw InputError(what + " = '" + text + "': must be one of " + kUnits.list());
 }
 
 double metres_per_unit(LengthUnit unit) {

@@ -3,6 +3,7 @@
 // to-string and from-string cannot disagree and the list in an error message is always complete.
 #include <cstddef>
 #include <initializer_list>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
@@ -23,10 +24,17 @@ class EnumNames {
     return {};
   }
 
-  // The value named `text`; throws InputError "<where>: unknown <what> "text" (one of a, b, c)".
-  Enum parse(const std::string& text, const std::string& where, const std::string& what) const {
+  // The value named `text` (exact, case-sensitive match), or nothing: for callers that word
+  // their own message.
+  std::optional<Enum> find(const std::string& text) const {
     for (const auto& [v, n] : table_)
       if (text == n) return v;
+    return std::nullopt;
+  }
+
+  // The value named `text`; throws InputError "<where>: unknown <what> "text" (one of a, b, c)".
+  Enum parse(const std::string& text, const std::string& where, const std::string& what) const {
+    if (const std::optional<Enum> v = find(text)) return *v;
     throw InputError(where + ": unknown " + what + " \"" + text + "\" (one of " + list() + ")");
   }
 

@@ -16,6 +16,13 @@ TEST(EnumNames, NamesAndValuesRoundTrip) {
   EXPECT_EQ(kColours.names().size(), 3u);
 }
 
+TEST(EnumNames, FindReturnsTheValueOrNothing) {
+  EXPECT_EQ(kColours.find("green"), Colour::green);
+  EXPECT_EQ(kColours.find("mauve"), std::nullopt);
+  EXPECT_EQ(kColours.find("Green"), std::nullopt);  // exact match, as parse
+  EXPECT_EQ(kColours.find(""), std::nullopt);
+}
+
 TEST(EnumNames, UnknownNameListsEveryChoiceAndThePlace) {
   try {
     kColours.parse("mauve", "case.json: /paint", "colour");

@@ -61,6 +61,9 @@ class KarmanTrefftz {
   // from theta_le() to theta_te() + 2 pi.
   double theta_te() const { return std::arg(cplx(1.0, 0.0) - centre()); }
   double theta_le() const { return theta_le_; }
+  // Direction of the chord (leading edge to trailing edge) in the mapping's frame, rad. A free
+  // stream at angle a in the mapping's frame is at a - chord_angle() in the chord frame.
+  double chord_angle() const { return chord_angle_; }
 
   // Point of the section at circle angle theta, in the chord frame.
   Eigen::Vector2d point(double theta) const {
@@ -118,6 +121,63 @@ class KarmanTrefftz {
     return s;
   }
 
+  // Circle angles of the `panels` + 1 nodes of a panelling such as a solver would use,
+  // counter-clockwise from theta_te() to theta_te() + 2 pi. On each surface (split at the node
+  // farthest from the trailing edge of a fine sampling) a cosine distribution, dense at both
+  // edges, in the curvature-weighted arc length d(mu) = (1 + kBlend sqrt(kappa c)) ds, so that
+  // panels shrink where the surface bends.
+  std::vector<double> panel_angles(int panels) const {
+    const int m = 40000;
+    std::vector<Eigen::Vector2d> pt(m + 1);
+    std::vector<double> th(m + 1), s(m + 1, 0.0);
+    for (int k = 0; k <= m; ++k) {
+      th[k] = theta_te() + 2.0 * kPi * k / m;
+      pt[k] = point(th[k]);
+    }
+    const Eigen::Vector2d te(1.0, 0.0);
+    int le = 0;
+    for (int k = 0; k <= m; ++k) {
+      if ((pt[k] - te).norm() > (pt[le] - te).norm()) le = k;
+    }
+    const double c = (pt[le] - te).norm();
+    for (int k = 1; k <= m; ++k) {
+      const Eigen::Vector2d a = pt[k] - pt[k - 1];
+      const double ds = a.norm();
+      double kappa = 0.0;
+      if (k < m) {  // turning angle over arc length
+        const Eigen::Vector2d b = pt[k + 1] - pt[k];
+        const double turn = std::abs(std::atan2(a.x() * b.y() - a.y() * b.x(), a.dot(b)));
+        kappa = turn / (0.5 * (ds + b.norm()));
+      }
+      s[k] = s[k - 1] + ds * (1.0 + kBlend * std::sqrt(kappa * c));
+    }
+    const int n_up = panels / 2;
+    std::vector<double> out(panels + 1);
+    int j = 0;
+    for (int k = 0; k <= panels; ++k) {
+      const double target =
+          k <= n_up
+              ? s[le] * 0.5 * (1.0 - std::cos(kPi * k / n_up))
+              : s[le] + (s[m] - s[le]) * 0.5 * (1.0 - std::cos(kPi * (k - n_up) / (panels - n_up)));
+      while (j < m - 1 && s[j + 1] < target) ++j;
+      const double w = (target - s[j]) / (s[j + 1] - s[j]);
+      out[k] = th[j] + w * (th[j + 1] - th[j]);
+    }
+    out[0] = theta_te();
+    out[panels] = theta_te() + 2.0 * kPi;
+    return out;
+  }
+
+  // The nodes at panel_angles(panels) in the chord frame, (panels + 1) x 2, counter-clockwise
+  // from the trailing edge; every node lies exactly on the section and the last repeats the first.
+  Points panel_nodes(int panels) const {
+    const std::vector<double> th = panel_angles(panels);
+    Points p(panels + 1, 2);
+    for (int k = 0; k <= panels; ++k) p.row(k) = point(th[k]).transpose();
+    p.row(panels) = p.row(0);
+    return p;
+  }
+
   // Circle angle of the section point nearest to p (chord frame): fine sampling, then
   // golden-section refinement of the distance.
   double nearest_theta(const Eigen::Vector2d& p) const {
@@ -148,6 +208,8 @@ class KarmanTrefftz {
 
  private:
   static constexpr double kPi = std::numbers::pi;
+  // Weight of curvature in the node spacing of panel_angles.
+  static constexpr double kBlend = 0.6;
   cplx centre() const { return {-mux_, muy_}; }
   double radius() const { return std::abs(cplx(1.0, 0.0) - centre()); }
   cplx zeta(double theta) const { return centre() + radius() * std::polar(1.0, theta); }
