@@ -120,22 +120,19 @@ int main(int argc, char** argv) {
       const auto t0 = std::chrono::steady_clock::now();
       const RunOutcome r = run_optimization(c, *ev, ro);
       const double wall = seconds_since(t0);
-      const json& s = r.summary;
-      const json& bp = s.at("baseline").at("points");
-      const json& op = s.at("optimized").at("points");
-      const double cd0 = bp.at(0).value("cd", std::nan(""));
-      optimum_cd = op.at(0).value("cd", std::nan(""));
-      const json& wcd = s.at("optimized").at("weighted_cd");
-      optimum_objective = wcd.is_number() ? 100.0 * wcd.get<double>() : NAN;
+      const RunSummary& s = r.summary;
+      const auto& bp = s.baseline.points;
+      const auto& op = s.optimized.points;
+      const double cd0 = bp.empty() ? NAN : bp.front().result.cd;
+      optimum_cd = op.empty() ? NAN : op.front().result.cd;
+      optimum_objective = 100.0 * s.optimized.weighted_cd;  // NaN when the analysis failed
       std::printf("\noptimization: %.0f s wall, %d evaluations, feasible %s, converged %s\n", wall,
-                  s.value("evaluations", 0), r.feasible ? "yes" : "NO", r.converged ? "yes" : "no");
+                  s.search.evaluations, r.feasible ? "yes" : "NO", r.converged ? "yes" : "no");
       std::printf("  cruise cd baseline %.6f -> verified optimum %.6f (%+.1f %%)\n", cd0,
                   optimum_cd, 100.0 * (optimum_cd / cd0 - 1.0));
-      for (const auto& t : s.at("constraints"))
-        std::printf(
-            "  %-28s value %10.5f  limit %10.5f  %s\n", t.value("name", std::string()).c_str(),
-            t.at("value").is_number() ? t.at("value").get<double>() : NAN,
-            t.value("limit", std::nan("")), t.value("satisfied", false) ? "met" : "NOT MET");
+      for (const ConstraintRecord& t : s.constraints)
+        std::printf("  %-28s value %10.5f  limit %10.5f  %s\n", t.name.c_str(), t.value, t.limit,
+                    t.satisfied ? "met" : "NOT MET");
     }
 
     std::vector<std::string> grid;

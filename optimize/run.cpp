@@ -147,8 +147,8 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
     put("plot_convergence", "convergence.svg", convergence_plot(r, tol));
   }
 
-  json summary = run_summary(c, r, v, baseline.name, baseline.shape, baseline.fit_deviation,
-                             opt_name, opt_shape, evaluator.description());
+  RunSummary summary = run_summary(c, r, v, baseline.name, baseline.shape, baseline.fit_deviation,
+                                   opt_name, opt_shape, evaluator.description());
   out_files.record("checkpoint", kCheckpointFile);
   if (c.outputs.report) {
     const std::string report =
@@ -156,9 +156,10 @@ RunOutcome run_optimization(const Case& c, const SectionEvaluator& evaluator,
     out_files.record("report", "report.md");
     write_file_atomically(dir / "report.md", report);
   }
-  summary["files"] = out_files.paths();
-  summary["files"]["summary"] = (dir / kSummaryFile).string();
-  write_file_atomically(dir / kSummaryFile, summary.dump(2) + "\n");
+  for (const auto& item : out_files.paths().items())
+    summary.files[item.key()] = item.value().get<std::string>();
+  summary.files["summary"] = (dir / kSummaryFile).string();
+  write_file_atomically(dir / kSummaryFile, to_json(summary).dump(2) + "\n");
 
   RunOutcome out;
   out.interrupted = r.interrupted;

@@ -12,6 +12,7 @@
 
 #include "geometry/cst.h"
 #include "optimize/case_file.h"
+#include "optimize/run_summary.h"
 #include "optimize/run_verify.h"
 #include "optimize/section_evaluator.h"
 
@@ -33,8 +34,8 @@ struct RunOptions {
 struct RunOutcome {
   bool interrupted = false;
   bool converged = false;
-  bool feasible = false;   // the verified optimum meets every constraint
-  nlohmann::json summary;  // as written to summary.json
+  bool feasible = false;  // the verified optimum meets every constraint
+  RunSummary summary;     // as written to summary.json (with its files)
 };
 
 // Names of the files written into the output directory.

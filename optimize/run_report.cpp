@@ -10,24 +10,17 @@
 namespace fulmar::optimize {
 namespace {
 
-using nlohmann::json;
 using run_text::fixed;
 using run_text::g6;
 
-double jnum(const json& j, const char* key) {
-  if (!j.is_object() || !j.contains(key) || !j.at(key).is_number()) return std::nan("");
-  return j.at(key).get<double>();
-}
-
 }  // namespace
 
-std::string report_markdown(const Case& c, const json& summary, const SearchResult& r,
+std::string report_markdown(const Case& c, const RunSummary& summary, const SearchResult& r,
                             const VerifiedOptimum& v, const std::string& baseline_name,
                             const std::string& evaluator_description, const std::string& caution) {
-  const json& constraints = summary.at("constraints");
-  const int failed = summary.at("failed_evaluations").get<int>();
-  const double cd0 = jnum(summary.at("baseline"), "weighted_cd");
-  const double cd1 = jnum(summary.at("optimized"), "weighted_cd");
+  const int failed = summary.search.failed_evaluations;
+  const double cd0 = summary.baseline.weighted_cd;
+  const double cd1 = summary.optimized.weighted_cd;
   std::ostringstream m;
   m << "# " << c.name << ": section design report\n\n";
   if (!caution.empty()) m << "> **" << caution << "**\n\n";
@@ -89,18 +82,17 @@ std::string report_markdown(const Case& c, const json& summary, const SearchResu
   if (std::isfinite(cd0) && std::isfinite(cd1) && cd0 > 0)
     m << " (" << fixed(100 * (1 - cd1 / cd0), 1) << " % less)";
   m << ".\n\nGeometry: baseline " << baseline_name << " t/c "
-    << fixed(summary.at("baseline").at("t_c").get<double>(), 4) << "; optimized t/c "
-    << fixed(summary.at("optimized").at("t_c").get<double>(), 4) << " at x/c "
-    << fixed(summary.at("optimized").at("thickness_x").get<double>(), 3) << ", camber "
-    << fixed(summary.at("optimized").at("camber").get<double>(), 4) << ".\n\n";
+    << fixed(summary.baseline.geometry.thickness, 4) << "; optimized t/c "
+    << fixed(summary.optimized.geometry.thickness, 4) << " at x/c "
+    << fixed(summary.optimized.geometry.thickness_x, 3) << ", camber "
+    << fixed(summary.optimized.geometry.camber, 4) << ".\n\n";
   m << "## Constraints (verification)\n\n| constraint | value | limit | met "
        "|\n|---|---|---|---|\n";
-  for (const auto& k : constraints)
-    m << "| " << k.at("name").get<std::string>() << " | "
-      << (k.at("value").is_number() ? g6(k.at("value").get<double>(), 5)
-                                    : std::string("(analysis failed)"))
-      << " | " << (k.at("kind") == "min" ? ">= " : "<= ") << g6(k.at("limit").get<double>(), 5)
-      << " | " << (k.at("satisfied").get<bool>() ? "yes" : "**no**") << " |\n";
+  for (const ConstraintRecord& k : summary.constraints)
+    m << "| " << k.name << " | "
+      << (std::isfinite(k.value) ? g6(k.value, 5) : std::string("(analysis failed)")) << " | "
+      << (k.is_min ? ">= " : "<= ") << g6(k.limit, 5) << " | " << (k.satisfied ? "yes" : "**no**")
+      << " |\n";
   if (c.outputs.plots) {
     m << "\n## Plots\n\n";
     for (const auto& [file, title] : std::vector<std::pair<std::string, std::string>>{

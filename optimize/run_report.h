@@ -3,10 +3,9 @@
 // against the baseline, the constraint table, the plots and the cautions.
 #include <string>
 
-#include <nlohmann/json.hpp>
-
 #include "optimize/case_file.h"
 #include "optimize/driver.h"
+#include "optimize/run_summary.h"
 #include "optimize/run_verify.h"
 
 namespace fulmar::optimize {
@@ -14,7 +13,7 @@ namespace fulmar::optimize {
 // `summary` is the run's summary (run_summary.h: its section blocks give the geometry figures and
 // its constraint table the constraints), `baseline_name` the baseline's name, `caution` is
 // printed at the top and the end when not empty.
-std::string report_markdown(const Case& c, const nlohmann::json& summary, const SearchResult& r,
+std::string report_markdown(const Case& c, const RunSummary& summary, const SearchResult& r,
                             const VerifiedOptimum& v, const std::string& baseline_name,
                             const std::string& evaluator_description, const std::string& caution);
 

@@ -1,5 +1,5 @@
-// Tests of summary.json's content (run_summary.h) and of the report built from it
-// (run_report.h), with the analytic stand-in.
+// Tests of summary.json's content and its one conversion each way (run_summary.h), and of the
+// report built from it (run_report.h), with the analytic stand-in.
 #include "optimize/run_summary.h"
 
 #include <gtest/gtest.h>
@@ -7,6 +7,7 @@
 #include <memory>
 #include <set>
 
+#include "common/error.h"
 #include "optimize/run_report.h"
 #include "optimize/testing/analytic_evaluator.h"
 
@@ -48,8 +49,8 @@ struct Fixture {
 
 TEST(RunSummary, HoldsTheVerifiedFiguresUnderTheirKeys) {
   Fixture f;
-  const json s = run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
-                             f.b.shape, f.ev.description());
+  const json s = to_json(run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
+                                     f.b.shape, f.ev.description()));
   ASSERT_TRUE(f.v.baseline.ok()) << f.v.baseline.reason;
   EXPECT_DOUBLE_EQ(s.at("baseline").at("weighted_cd").get<double>(),
                    f.v.baseline.objective / 100.0);
@@ -69,10 +70,79 @@ TEST(RunSummary, HoldsTheVerifiedFiguresUnderTheirKeys) {
     EXPECT_TRUE(ids.count(id)) << id;
 }
 
+// The summary as written (with its files) reads back to the same document.
+json written_summary(const Fixture& f) {
+  RunSummary s = run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
+                             f.b.shape, f.ev.description());
+  s.files = {{"report", "out/report.md"}, {"summary", "out/summary.json"}};
+  return json::parse(to_json(s).dump(2));
+}
+
+TEST(RunSummary, ReadsBackToTheSameDocument) {
+  Fixture f;
+  const json j = written_summary(f);
+  const RunSummary s = run_summary_from_json(j, "summary.json");
+  EXPECT_EQ(to_json(s), j);
+  EXPECT_EQ(s.search.failed_evaluations, 1);
+  EXPECT_EQ(s.search.outcome.reason, "test");
+  EXPECT_EQ(s.baseline.points.size(), 2u);
+  ASSERT_TRUE(s.run_case.landing.has_value());
+  EXPECT_FALSE(s.run_case.airplane.has_value());
+  EXPECT_TRUE(s.baseline.fit_max_deviation.has_value());
+  EXPECT_FALSE(s.optimized.fit_max_deviation.has_value());
+}
+
+// Reading `j` fails with exactly `message`.
+void expect_rejected(const json& j, const std::string& message) {
+  try {
+    run_summary_from_json(j, "p003/summary.json");
+    ADD_FAILURE() << "accepted; expected: " << message;
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()), message);
+  }
+}
+
+TEST(RunSummary, AMissingKeyIsAnErrorNamingItsPath) {
+  Fixture f;
+  json j = written_summary(f);
+  j.erase("feasible");
+  expect_rejected(j, "p003/summary.json/feasible: missing");
+  j = written_summary(f);
+  j["optimized"]["points"][1].erase("cd");
+  expect_rejected(j, "p003/summary.json/optimized/points/1/cd: missing");
+  j = written_summary(f);
+  j["baseline"].erase("fit_max_deviation");
+  expect_rejected(j, "p003/summary.json/baseline/fit_max_deviation: missing");
+  j = written_summary(f);
+  j.erase("files");
+  expect_rejected(j, "p003/summary.json/files: missing");
+}
+
+TEST(RunSummary, AMistypedKeyIsAnErrorNamingItsPath) {
+  Fixture f;
+  json j = written_summary(f);
+  j["evaluations"] = "2";
+  expect_rejected(j, "p003/summary.json/evaluations: not an integer");
+  j = written_summary(f);
+  j["constraints"][0]["satisfied"] = 1;
+  expect_rejected(j, "p003/summary.json/constraints/0/satisfied: not true or false");
+  j = written_summary(f);
+  j["status"] = "finished";
+  try {
+    run_summary_from_json(j, "p003/summary.json");
+    ADD_FAILURE() << "accepted an unknown search status";
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()).rfind("p003/summary.json/status: ", 0), 0u) << e.what();
+  }
+  j = written_summary(f);
+  j["landing"]["reynolds"] = json::array();
+  expect_rejected(j, "p003/summary.json/landing/reynolds: not a number");
+}
+
 TEST(RunReport, SaysWhetherTheConstraintsAreMetAndRepeatsTheCaution) {
   Fixture f;
-  const json s = run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
-                             f.b.shape, f.ev.description());
+  const RunSummary s = run_summary(f.c, f.r, f.v, f.b.name, f.b.shape, f.b.fit_deviation, "opt",
+                                   f.b.shape, f.ev.description());
   const std::string m =
       report_markdown(f.c, s, f.r, f.v, f.b.name, f.ev.description(), "CAUTION TEXT");
   EXPECT_EQ(m.rfind("# summary: section design report", 0), 0u);

@@ -5,6 +5,7 @@
 #include <gtest/gtest.h>
 #include <unistd.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -72,7 +73,6 @@ TEST(Run, WritesEveryResultFile) {
   o.threads = 2;
   o.caution = "CAUTION TEXT";
   const RunOutcome out = run_optimization(small_case(), ev, o);
-  const json& s = out.summary;
   for (const char* f :
        {"optimized.dat", "optimized.csv", "optimized_cst.json", "polar_baseline.csv",
         "polar_optimized.csv", "history.csv", "summary.json", "report.md", "sections.svg",
@@ -80,7 +80,11 @@ TEST(Run, WritesEveryResultFile) {
     ASSERT_TRUE(fs::exists(dir / f)) << f;
     EXPECT_EQ(slurp(dir / f).find("nan"), std::string::npos) << f;
   }
-  EXPECT_EQ(json::parse(slurp(dir / "summary.json")), s);
+  // summary.json is the summary's one JSON form, and reads back to the same document.
+  const json written = json::parse(slurp(dir / "summary.json"));
+  EXPECT_EQ(written, to_json(out.summary));
+  EXPECT_EQ(to_json(run_summary_from_json(written, "summary.json")), written);
+  const json& s = written;
   // The CST JSON is a SHAPE fulmar reads back.
   const CstShape shape =
       cst_from_json(json::parse(slurp(dir / "optimized_cst.json")), "optimized_cst.json");
@@ -131,8 +135,8 @@ TEST(Run, WritesCadFilesWhenAsked) {
   for (const char* f : {"optimized_cad.step", "optimized_cad.dxf", "optimized_cad.csv"}) {
     ASSERT_TRUE(fs::exists(dir / f)) << f;
   }
-  EXPECT_TRUE(out.summary["files"].contains("cad_step"));
-  EXPECT_TRUE(out.summary["files"].contains("cad_dxf"));
+  EXPECT_TRUE(out.summary.files.count("cad_step"));
+  EXPECT_TRUE(out.summary.files.count("cad_dxf"));
   EXPECT_NE(slurp(dir / "optimized_cad.step").find("B_SPLINE_CURVE_WITH_KNOTS"), std::string::npos);
   // The CAD CSV is placed at the chord in mm: its largest x is 900.
   double x_max = 0;
@@ -164,9 +168,9 @@ TEST(Run, InterruptWritesTheBestDesignAndResumeReachesTheSameOptimum) {
   o1.stop = &stop;
   const RunOutcome first = run_optimization(small_case(), stopping, o1);
   EXPECT_TRUE(first.interrupted);
-  EXPECT_TRUE(first.summary["interrupted"].get<bool>());
+  EXPECT_TRUE(first.summary.search.interrupted);
   EXPECT_TRUE(fs::exists(dir / "optimized.dat"));
-  EXPECT_LT(first.summary["evaluations"].get<int>(), whole.summary["evaluations"].get<int>());
+  EXPECT_LT(first.summary.search.evaluations, whole.summary.search.evaluations);
 
   testing::AnalyticEvaluator fresh;
   RunOptions o2 = o;
@@ -174,10 +178,11 @@ TEST(Run, InterruptWritesTheBestDesignAndResumeReachesTheSameOptimum) {
   o2.resume = true;
   const RunOutcome resumed = run_optimization(small_case(), fresh, o2);
   EXPECT_FALSE(resumed.interrupted);
-  EXPECT_EQ(resumed.summary["evaluations"], whole.summary["evaluations"]);
-  EXPECT_EQ(resumed.summary["optimized"]["cst"], whole.summary["optimized"]["cst"]);
-  EXPECT_EQ(resumed.summary["optimized"]["weighted_cd"], whole.summary["optimized"]["weighted_cd"]);
-  EXPECT_GT(resumed.summary["replayed_from_checkpoint"].get<int>(), 0);
+  EXPECT_EQ(resumed.summary.search.evaluations, whole.summary.search.evaluations);
+  EXPECT_EQ(to_json(resumed.summary)["optimized"]["cst"],
+            to_json(whole.summary)["optimized"]["cst"]);
+  EXPECT_EQ(resumed.summary.optimized.weighted_cd, whole.summary.optimized.weighted_cd);
+  EXPECT_GT(resumed.summary.search.replayed_from_checkpoint, 0);
   fs::remove_all(whole_dir);
   fs::remove_all(dir);
 }
@@ -209,7 +214,7 @@ TEST(Run, StartsWhereToldAndKeepsTheBaselineAsReference) {
   std::snprintf(buf, sizeof buf, "%.17g", start.upper[0]);
   EXPECT_NE(first_row.substr(0, first_row.find('\n')).find(buf), std::string::npos)
       << first_row.substr(0, 200);
-  EXPECT_EQ(out.summary["baseline"]["name"], "NACA 0018");
+  EXPECT_EQ(out.summary.baseline.name, "NACA 0018");
   CstShape wrong = fit_cst(naca_section("2414", 201), 5, 5).shape;
   o.output_dir = dir2;
   o.start_shape = wrong;
@@ -246,15 +251,13 @@ TEST(Run, KeepsAFeasibleStartThatVerifiesBetterThanEverySearchCandidate) {
   const RunOutcome out = run_optimization(c, ev, o);
   // The search itself improves on the start (at its own panels), so without the rule a worse
   // design would be returned.
-  ASSERT_GT(out.summary["verified_candidates"].size(), 0u);
-  const json& first = out.summary["verified_candidates"][0];
-  ASSERT_TRUE(first["search_objective"].is_number());
-  EXPECT_TRUE(out.summary["optimum_is_start"].get<bool>());
+  ASSERT_GT(out.summary.verified_candidates.size(), 0u);
+  const SummaryCandidate& first = out.summary.verified_candidates[0];
+  ASSERT_TRUE(std::isfinite(first.search_objective));
+  EXPECT_TRUE(out.summary.optimum_is_start);
   EXPECT_TRUE(out.feasible);
-  EXPECT_DOUBLE_EQ(out.summary["optimized"]["weighted_cd"].get<double>(),
-                   out.summary["baseline"]["weighted_cd"].get<double>());
-  EXPECT_LT(out.summary["baseline"]["weighted_cd"].get<double>(),
-            first["verified_objective"].get<double>() / 100.0);
+  EXPECT_DOUBLE_EQ(out.summary.optimized.weighted_cd, out.summary.baseline.weighted_cd);
+  EXPECT_LT(out.summary.baseline.weighted_cd, first.verified_objective / 100.0);
   EXPECT_NE(slurp(dir / "report.md").find("better than the start"), std::string::npos);
   fs::remove_all(dir);
 }
@@ -266,9 +269,8 @@ TEST(Run, AnOrdinarySearchDoesNotKeepItsStart) {
   o.output_dir = dir;
   o.threads = 2;
   const RunOutcome out = run_optimization(small_case(60), ev, o);
-  EXPECT_FALSE(out.summary["optimum_is_start"].get<bool>());
-  EXPECT_LT(out.summary["optimized"]["weighted_cd"].get<double>(),
-            out.summary["baseline"]["weighted_cd"].get<double>());
+  EXPECT_FALSE(out.summary.optimum_is_start);
+  EXPECT_LT(out.summary.optimized.weighted_cd, out.summary.baseline.weighted_cd);
   fs::remove_all(dir);
 }
 
@@ -285,7 +287,7 @@ TEST(Run, ASecondStartIsSearchedFromToo) {
   o.output_dir = dir;
   o.threads = 2;
   const RunOutcome out = run_optimization(c, ev, o);
-  const std::string reason = out.summary["stop_reason"].get<std::string>();
+  const std::string reason = out.summary.search.outcome.reason;
   EXPECT_NE(reason.find("from start 2"), std::string::npos) << reason;
   // Its first design is the NACA 2412 fitted at the case's orders.
   const CstShape s = resolve_shape(c, b).shape;

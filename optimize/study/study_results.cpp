@@ -21,15 +21,6 @@ namespace {
 
 using nlohmann::json;
 
-bool feasible(const json& summary) {
-  return optimize::json_read::boolean(summary, "feasible", "summary");
-}
-
-double jnum(const json& j, const char* key) {
-  if (!j.is_object() || !j.contains(key) || !j.at(key).is_number()) return std::nan("");
-  return j.at(key).get<double>();
-}
-
 std::string csv_field(const std::string& s) {
   if (s.find_first_of(",\"\n") == std::string::npos) return s;
   std::string q = "\"";
@@ -47,14 +38,11 @@ std::vector<std::string> design_point_labels(const std::vector<PointRecord>& rec
   std::vector<std::string> labels;
   std::set<std::string> scenarios;
   for (const auto& r : records)
-    for (const auto& p :
-         r.summary.value("optimized", json::object()).value("points", json::array()))
-      scenarios.insert(p.value("scenario", std::string()));
+    for (const auto& p : r.summary.optimized.points) scenarios.insert(p.scenario);
   for (const auto& r : records)
-    for (const auto& p :
-         r.summary.value("optimized", json::object()).value("points", json::array())) {
-      std::string l = p.value("point", std::string());
-      if (scenarios.size() > 1) l.append("/").append(p.value("scenario", std::string()));
+    for (const auto& p : r.summary.optimized.points) {
+      std::string l = p.point;
+      if (scenarios.size() > 1) l.append("/").append(p.scenario);
       if (std::find(labels.begin(), labels.end(), l) == labels.end()) labels.push_back(l);
     }
   return labels;
@@ -62,11 +50,10 @@ std::vector<std::string> design_point_labels(const std::vector<PointRecord>& rec
 
 std::map<std::string, double> design_point_cd(const PointRecord& r, bool with_scenario) {
   std::map<std::string, double> out;
-  for (const auto& p :
-       r.summary.value("optimized", json::object()).value("points", json::array())) {
-    std::string l = p.value("point", std::string());
-    if (with_scenario) l.append("/").append(p.value("scenario", std::string()));
-    out[l] = p.value("converged", false) ? jnum(p, "cd") : std::nan("");
+  for (const auto& p : r.summary.optimized.points) {
+    std::string l = p.point;
+    if (with_scenario) l.append("/").append(p.scenario);
+    out[l] = p.result.converged() ? p.result.cd : std::nan("");
   }
   return out;
 }
@@ -74,10 +61,8 @@ std::map<std::string, double> design_point_cd(const PointRecord& r, bool with_sc
 bool has_scenarios(const std::vector<std::string>& labels,
                    const std::vector<PointRecord>& records) {
   if (records.empty()) return false;
-  const auto pts =
-      records.front().summary.value("optimized", json::object()).value("points", json::array());
-  return !labels.empty() && !pts.empty() &&
-         labels.front() != pts.front().value("point", std::string());
+  const auto& pts = records.front().summary.optimized.points;
+  return !labels.empty() && !pts.empty() && labels.front() != pts.front().point;
 }
 
 // The constraints of the study, identified by id, in order of first appearance; each with its
@@ -185,7 +170,7 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
             if (!marks.empty()) marks += ",";
             marks += std::to_string(k + 1);
           }
-        if (!feasible(rec->summary)) marks += marks.empty() ? "infeasible" : " infeasible";
+        if (!rec->summary.feasible) marks += marks.empty() ? "infeasible" : " infeasible";
         o << "<text x=\"" << f(x + cell_w / 2) << "\" y=\"" << f(y + 32)
           << "\" text-anchor=\"middle\" font-size=\"10\" fill=\"" << ink << "\">"
           << xml_escaped(marks) << "</text>\n";
@@ -207,13 +192,10 @@ std::string heat_map(const StudyDefinition& study, const std::vector<PointRecord
 
 }  // namespace
 
-std::vector<ConstraintState> constraint_states(const json& summary, double active_tolerance) {
+std::vector<ConstraintState> constraint_states(const optimize::RunSummary& summary,
+                                               double active_tolerance) {
   std::vector<ConstraintState> out;
-  const json& rows = optimize::json_read::member(summary, "constraints", "summary");
-  if (!rows.is_array()) throw InputError("summary/constraints: not a list");
-  for (size_t i = 0; i < rows.size(); ++i) {
-    const optimize::ConstraintRecord c =
-        optimize::constraint_record_from_json(rows[i], "summary/constraints/" + std::to_string(i));
+  for (const optimize::ConstraintRecord& c : summary.constraints) {
     ConstraintState s;
     s.id = c.id;
     s.key = c.name;
@@ -228,7 +210,7 @@ std::vector<ConstraintState> constraint_states(const json& summary, double activ
 }
 
 double weighted_cd(const PointRecord& r) {
-  return jnum(r.summary.value("optimized", json::object()), "weighted_cd");
+  return r.summary.optimized.weighted_cd;
 }
 
 std::string study_csv(const StudyDefinition& study, const std::vector<PointRecord>& records) {
@@ -247,19 +229,18 @@ std::string study_csv(const StudyDefinition& study, const std::vector<PointRecor
       o << "," << csv_field(k.second + what);
   o << ",coordinates,coordinates_csv,cst\n";
   for (const auto& r : records) {
-    const json& opt = r.summary.value("optimized", json::object());
+    const optimize::SummarySection& opt = r.summary.optimized;
     o << r.point.index + 1;
     for (double v : r.point.values) o << "," << number_text(v, 12);
-    o << "," << csv_field(r.start) << "," << (feasible(r.summary) ? "true" : "false") << ","
-      << (optimize::json_read::boolean(r.summary, "converged", "summary") ? "true" : "false") << ","
-      << optimize::json_read::integer(r.summary, "evaluations", "summary") << ","
-      << number_text(weighted_cd(r), 8);
+    o << "," << csv_field(r.start) << "," << (r.summary.feasible ? "true" : "false") << ","
+      << (r.summary.search.outcome.status == Status::kConverged ? "true" : "false") << ","
+      << r.summary.search.evaluations << "," << number_text(weighted_cd(r), 8);
     const auto cds = design_point_cd(r, scen);
     for (const auto& l : labels) {
       const auto it = cds.find(l);
       o << "," << (it == cds.end() ? std::string() : number_text(it->second, 8));
     }
-    o << "," << number_text(jnum(opt, "cl_max"), 6) << "," << number_text(jnum(opt, "t_c"), 6);
+    o << "," << number_text(opt.cl_max, 6) << "," << number_text(opt.geometry.thickness, 6);
     const auto states = constraint_states(r.summary, tol);
     for (const auto& k : keys) {
       const auto it = std::find_if(states.begin(), states.end(),
@@ -323,8 +304,7 @@ std::string trade_svg(const StudyDefinition& study, const std::vector<PointRecor
   bad.markers = true;
   bad.colour = "#b03a2e";
   for (const auto* r : sorted)
-    if (!feasible(r->summary))
-      bad.x.push_back(r->point.values[0]), bad.y.push_back(weighted_cd(*r));
+    if (!r->summary.feasible) bad.x.push_back(r->point.values[0]), bad.y.push_back(weighted_cd(*r));
   if (!bad.x.empty()) cd.series.push_back(bad);
 
   // The strip: constraint k's active points at height k.
@@ -374,10 +354,7 @@ std::string sections_svg(const StudyDefinition& study, const std::vector<PointRe
   c.height = 300;
   const auto& colours = optimize::series_colours();
   for (size_t k = 0; k < records.size(); ++k) {
-    const json& cst = records[k].summary.value("optimized", json::object()).value("cst", json());
-    if (cst.is_null()) continue;
-    const Section s =
-        cst_section(cst_from_json(cst, records[k].point.dir + "/summary.json: /optimized/cst"), 81);
+    const Section s = cst_section(records[k].summary.optimized.cst, 81);
     optimize::Series se;
     // A legend of more than a dozen entries would cover the sections.
     se.label = k < 12 ? point_label(study, records[k].point) : std::string();
@@ -413,11 +390,11 @@ std::string study_report(const StudyDefinition& study, const std::vector<PointRe
   for (size_t k = 0; k < study.parameters.size(); ++k) m << "---|";
   m << "---|---|---|---|---|---|\n";
   for (const auto& r : records) {
-    const json& opt = r.summary.value("optimized", json::object());
+    const optimize::SummarySection& opt = r.summary.optimized;
     m << "| " << r.point.index + 1 << " |";
     for (double v : r.point.values) m << " " << number_text(v) << " |";
-    m << " " << fixed(weighted_cd(r), 5) << " | " << fixed(jnum(opt, "t_c"), 4) << " | "
-      << fixed(jnum(opt, "cl_max"), 3) << " | " << (feasible(r.summary) ? "yes" : "**no**") << " | "
+    m << " " << fixed(weighted_cd(r), 5) << " | " << fixed(opt.geometry.thickness, 4) << " | "
+      << fixed(opt.cl_max, 3) << " | " << (r.summary.feasible ? "yes" : "**no**") << " | "
       << active_list(constraint_states(r.summary, tol)) << " | " << r.start << " |\n";
   }
   if (records.size() < total) {

@@ -8,8 +8,7 @@
 #include <string>
 #include <vector>
 
-#include <nlohmann/json.hpp>
-
+#include "optimize/run_summary.h"
 #include "optimize/study/study_case.h"
 
 namespace fulmar::study {
@@ -17,12 +16,11 @@ namespace fulmar::study {
 // One finished point.
 struct PointRecord {
   StudyPoint point;
-  std::string start;       // "baseline" or "point N" (1-based): where its search started
-  nlohmann::json summary;  // the point's summary.json (run_optimization)
+  std::string start;             // "baseline" or "point N" (1-based): where its search started
+  optimize::RunSummary summary;  // the point's summary.json (run_optimization)
 };
 
-// One constraint of one point's verified optimum, from summary.json's "constraints" (read
-// strictly: a missing key is an InputError naming it).
+// One constraint of one point's verified optimum, from summary.json's "constraints".
 struct ConstraintState {
   std::string id;   // stable id (optimize::ConstraintRecord::id): what identifies it across points
   std::string key;  // name and sense for headings, e.g. "t/c >=" (display text only)
@@ -30,7 +28,7 @@ struct ConstraintState {
   bool met = false;
   bool active = false;  // within the study's active_tolerance of the limit (constraint_active)
 };
-std::vector<ConstraintState> constraint_states(const nlohmann::json& summary,
+std::vector<ConstraintState> constraint_states(const optimize::RunSummary& summary,
                                                double active_tolerance);
 
 // The weighted cd of a point's verified optimum; NaN when its analysis failed.

@@ -58,10 +58,8 @@ struct Start {
 Start start_of(const StudyPoint& p, const PointRecord* pred) {
   Start s;
   if (p.predecessor < 0 || !pred) return s;
-  const std::string where = pred->point.dir + "/" + optimize::kSummaryFile;
-  if (!optimize::json_read::boolean(pred->summary, "feasible", where)) return s;
-  s.cst = optimize::json_read::member(
-      optimize::json_read::member(pred->summary, "optimized", where), "cst", where + "/optimized");
+  if (!pred->summary.feasible) return s;
+  s.cst = cst_to_json(pred->summary.optimized.cst, pred->summary.optimized.name);
   s.text = "point " + std::to_string(p.predecessor + 1);
   return s;
 }
@@ -74,9 +72,13 @@ std::optional<PointRecord> finished_point(const StudyDefinition& study, const St
   const auto point = read_json(dir / p.dir / kPointFile);
   if (!point || !point->contains("case") || point->at("case") != point_case_json(study, p, s.cst))
     return std::nullopt;
-  const auto summary = read_json(dir / p.dir / optimize::kSummaryFile);
-  if (!summary || summary->value("interrupted", true)) return std::nullopt;
-  return PointRecord{p, s.text, *summary};
+  const fs::path file = dir / p.dir / optimize::kSummaryFile;
+  const auto summary = read_json(file);
+  if (!summary) return std::nullopt;
+  // A summary that cannot be read is an error naming the file and key, not an unfinished point.
+  PointRecord r{p, s.text, optimize::run_summary_from_json(*summary, file.string())};
+  if (r.summary.search.interrupted) return std::nullopt;
+  return r;
 }
 
 }  // namespace
@@ -228,16 +230,12 @@ StudyOutcome run_study(const StudyDefinition& study, const optimize::SectionEval
             return;
           }
           ++outcome.points_run;
-          const double cd =
-              r.summary.value("optimized", json::object()).value("weighted_cd", json()).is_number()
-                  ? r.summary["optimized"]["weighted_cd"].get<double>()
-                  : std::nan("");
+          const double cd = r.summary.optimized.weighted_cd;
           say("point " + std::to_string(p.index + 1) + "/" + total + " (" + point_label(study, p) +
               "): weighted cd " +
               (std::isfinite(cd) ? number_text(cd, 5) : std::string("(analysis failed)")) + ", " +
               (r.feasible ? "constraints met" : "constraints NOT met") + ", " +
-              std::to_string(optimize::json_read::integer(r.summary, "evaluations", "summary")) +
-              " analyses");
+              std::to_string(r.summary.search.evaluations) + " analyses");
           pred = PointRecord{p, s.text, r.summary};
         } catch (...) {  // thrown again by parallel_for once every chain has ended
           std::lock_guard<std::mutex> lock(mutex);

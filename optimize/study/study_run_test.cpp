@@ -68,7 +68,7 @@ TEST(StudyRun, DragRisesWithTheThicknessBoundWhichIsActiveEverywhere) {
   ASSERT_EQ(recs.size(), 5u);
   double previous = 0;
   for (const auto& r : recs) {
-    EXPECT_TRUE(r.summary.value("feasible", false)) << r.point.index;
+    EXPECT_TRUE(r.summary.feasible) << r.point.index;
     const double cd = weighted_cd(r);
     // The stand-in's friction term grows as 0.02 x t/c with nothing to gain from extra thickness,
     // so every optimum sits on the bound and each 0.02 of bound costs 0.02 x 0.02 = 4e-4 in cd
@@ -153,6 +153,23 @@ TEST(StudyRun, ResumeKeepsFinishedPointsAndRefusesWithoutIt) {
     ADD_FAILURE() << "ran over existing points without --resume";
   } catch (const InputError& e) {
     EXPECT_NE(std::string(e.what()).find("exists already"), std::string::npos) << e.what();
+  }
+}
+
+// A point's summary.json that lacks a key is an error naming the file and the key, not a
+// default value (and not a point to run again).
+TEST(StudyRun, ResumeRefusesASummaryWithAKeyMissing) {
+  const fs::path base = scratch("bad_summary");
+  fs::copy(single_run(), base / "study", fs::copy_options::recursive);
+  const fs::path file = base / "study/points/p003/summary.json";
+  json j = json::parse(slurp(file));
+  j["optimized"].erase("weighted_cd");
+  std::ofstream(file) << j.dump(2);
+  try {
+    run(test_study(), base / "study", {}, true);
+    ADD_FAILURE() << "read a summary without optimized/weighted_cd";
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()), file.string() + "/optimized/weighted_cd: missing");
   }
 }
 

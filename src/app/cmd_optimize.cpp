@@ -1,5 +1,6 @@
 // `fulmar optimize CASE.json [-o DIR] [--resume]`: the minimum-drag section for an airplane.
 #include <atomic>
+#include <cmath>
 #include <csignal>
 #include <cstdio>
 #include <iostream>
@@ -67,17 +68,15 @@ void run_optimize(const OptimizeArgs& a) {
     options.stop = stop.flag();
     out = optimize::run_optimization(c, *evaluator, options);
   }
-  const auto& s = out.summary;
+  const optimize::RunSummary& s = out.summary;
   std::cout << (out.interrupted
                     ? "stopped by a signal; the best feasible design so far is written"
-                    : (out.converged ? "converged"
-                                     : "stopped: " + s.value("stop_reason", std::string())))
+                    : (out.converged ? "converged" : "stopped: " + s.search.outcome.reason))
             << "\n";
-  if (s.contains("drag_reduction_percent") && s["drag_reduction_percent"].is_number())
-    std::printf(
-        "weighted cd %.5f -> %.5f (%.1f %% less), constraints %s\n",
-        s["baseline"]["weighted_cd"].get<double>(), s["optimized"]["weighted_cd"].get<double>(),
-        s["drag_reduction_percent"].get<double>(), out.feasible ? "all met" : "NOT all met");
+  if (std::isfinite(s.drag_reduction_percent))
+    std::printf("weighted cd %.5f -> %.5f (%.1f %% less), constraints %s\n", s.baseline.weighted_cd,
+                s.optimized.weighted_cd, s.drag_reduction_percent,
+                out.feasible ? "all met" : "NOT all met");
   std::cout << "results in " << dir.string() << " (summary.json, report.md)\n";
 }
 
