@@ -35,18 +35,6 @@ TEST(CaseFile, MessagesNameFileJsonPathAndRule) {
       << error_of(j);
 }
 
-TEST(CaseFile, SecondStartIsReadLikeTheBaseline) {
-  json j = good_case();
-  EXPECT_FALSE(parse(j).second_start.has_value());
-  j["second_start"] = {{"naca", "0015"}};
-  const Case c = parse(j);
-  ASSERT_TRUE(c.second_start.has_value());
-  EXPECT_EQ(c.second_start->naca, "0015");
-  EXPECT_EQ(c.second_start->json_path, "/second_start");
-  j["second_start"] = {{"naca", "0015"}, {"file", "x.dat"}};
-  EXPECT_EQ(error_of(j), "case.json: /second_start: give exactly one of naca, file or cst");
-}
-
 TEST(CaseFile, NotJsonNamesLineColumnAndWhatIsWrong) {
   try {
     parse_case("{\n  \"schema_version\": 1,\n  oops\n}", "bad.json", ".");

@@ -21,9 +21,7 @@ namespace {
 
 using testing::KarmanTrefftz;
 
-double deg(double d) {
-  return d * std::numbers::pi / 180.0;
-}
+using testing::deg;
 
 struct Case {
   const char* name;

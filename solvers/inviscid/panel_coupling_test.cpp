@@ -23,9 +23,7 @@ using testing::KarmanTrefftz;
 using testing::opened;
 
 constexpr double kPi = std::numbers::pi;
-double deg(double d) {
-  return d * kPi / 180.0;
-}
+using testing::deg;
 
 // The cambered Karman-Trefftz section of panel_solver_test.cpp: 12 % thick, 4 % camber, unit
 // chord. kGap: the trailing-edge gap of its open variant, 0.5 % chord.

@@ -22,9 +22,7 @@ using testing::KarmanTrefftz;
 using testing::opened;
 
 constexpr double kPi = std::numbers::pi;
-double deg(double d) {
-  return d * kPi / 180.0;
-}
+using testing::deg;
 // The Karman-Trefftz cases give their angles of attack in the frame of the conformal map
 // (trailing edge on the real axis), where they were first set up; the sections and the solver
 // work in the chord frame, turned by chord_angle() from it (0 to -0.08 deg for these sections).

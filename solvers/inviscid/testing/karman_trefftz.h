@@ -23,6 +23,11 @@
 
 namespace fulmar::testing {
 
+// Degrees to radians (the test cases give angles in degrees, the solvers take radians).
+inline double deg(double degrees) {
+  return degrees * std::numbers::pi / 180.0;
+}
+
 class KarmanTrefftz {
  public:
   using cplx = std::complex<double>;
